@@ -1,0 +1,10 @@
+//! Molecules: reading SMILES, rings, aromaticity, elements and formulas, SMARTS matching.
+
+pub mod aromaticity;
+pub mod elements;
+pub mod formula;
+pub mod kekule;
+pub mod molecule;
+pub mod rings;
+pub mod smarts;
+pub mod smiles;

@@ -1,0 +1,1 @@
+//! SMARTS patterns: parse and match (to be written).
