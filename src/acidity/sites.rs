@@ -1,0 +1,52 @@
+//! Finding sites: every group pattern is matched against the molecule in table order, and the
+//! first row that has an atom as its site claims that atom. Rows of kind `none` claim atoms
+//! too, which is how amide nitrogens and alcohols are kept from ever being reported.
+
+use serde::Serialize;
+
+use super::group::{Group, Kind};
+use crate::chem::molecule::Molecule;
+
+/// One ionizable atom with its pKa estimate.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Site {
+    /// Atom index in the molecule (heavy atoms in SMILES order).
+    pub atom: usize,
+    /// Name of the group row that matched.
+    pub group: String,
+    pub kind: Kind,
+    pub pka: f64,
+    pub pka_low: f64,
+    pub pka_high: f64,
+    /// Where the value comes from.
+    pub source: String,
+}
+
+/// The sites of `mol` under `groups` (table order is priority), sorted by atom index.
+pub fn find_sites(mol: &Molecule, groups: &[Group]) -> Vec<Site> {
+    let mut claimed: Vec<Option<usize>> = vec![None; mol.atoms.len()];
+    for (g, group) in groups.iter().enumerate() {
+        for m in group.pattern.matches(mol) {
+            let atom = m[group.site];
+            if claimed[atom].is_none() {
+                claimed[atom] = Some(g);
+            }
+        }
+    }
+    claimed
+        .iter()
+        .enumerate()
+        .filter_map(|(atom, g)| {
+            let group = &groups[(*g)?];
+            Some(Site {
+                atom,
+                group: group.name.clone(),
+                kind: group.kind?,
+                pka: group.pka,
+                pka_low: group.pka_low,
+                pka_high: group.pka_high,
+                source: group.source.clone(),
+            })
+        })
+        .collect()
+}

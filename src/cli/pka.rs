@@ -1,0 +1,110 @@
+//! `phdose pka`: the ionizable sites of each structure with pKa, range and source.
+
+use std::path::PathBuf;
+
+use serde::Serialize;
+use tabled::Tabled;
+
+use super::{Cli, Format, input, open_store};
+use crate::acidity::{Group, Profile, Site};
+use crate::error::{Error, Result};
+use crate::report;
+
+#[derive(Debug, clap::Args)]
+pub struct Args {
+    /// Structures as SMILES.
+    pub smiles: Vec<String>,
+    /// Read structures from a file (CSV with a `smiles` column, or one per line; `-` = stdin).
+    /// Bad rows do not stop the run: their `error` is set.
+    #[arg(long, value_name = "FILE")]
+    pub input: Option<PathBuf>,
+    /// Use the group estimates only, ignoring stored measured values.
+    #[arg(long)]
+    pub estimate_only: bool,
+}
+
+/// The JSON object for one input structure (design §5).
+#[derive(Debug, Serialize)]
+pub struct PkaResult {
+    pub smiles: String,
+    pub sites: Vec<Site>,
+    pub error: Option<String>,
+}
+
+#[derive(Tabled, Serialize)]
+struct Row {
+    smiles: String,
+    atom: String,
+    group: String,
+    kind: String,
+    pka: String,
+    pka_low: String,
+    pka_high: String,
+    source: String,
+}
+
+/// Sites of one SMILES, or the error that stopped reading it.
+pub fn annotate(smiles: &str, groups: &[Group]) -> Result<PkaResult> {
+    let profile = Profile::new(smiles, groups)?;
+    Ok(PkaResult { smiles: smiles.to_string(), sites: profile.sites, error: None })
+}
+
+fn rows(results: &[PkaResult]) -> Vec<Row> {
+    let mut rows = Vec::new();
+    for r in results {
+        let blank = |text: &str| Row {
+            smiles: r.smiles.clone(),
+            atom: String::new(),
+            group: text.to_string(),
+            kind: String::new(),
+            pka: String::new(),
+            pka_low: String::new(),
+            pka_high: String::new(),
+            source: String::new(),
+        };
+        if let Some(e) = &r.error {
+            rows.push(blank(&format!("error: {}", e.lines().next().unwrap_or(""))));
+        } else if r.sites.is_empty() {
+            rows.push(blank("no ionizable site in water"));
+        }
+        for s in &r.sites {
+            rows.push(Row {
+                smiles: r.smiles.clone(),
+                atom: s.atom.to_string(),
+                group: s.group.clone(),
+                kind: s.kind.as_str().into(),
+                pka: format!("{:.2}", s.pka),
+                pka_low: format!("{:.2}", s.pka_low),
+                pka_high: format!("{:.2}", s.pka_high),
+                source: s.source.clone(),
+            });
+        }
+    }
+    rows
+}
+
+pub fn run(args: &Args, cli: &Cli) -> Result<String> {
+    let batch = args.input.is_some();
+    let mut list = args.smiles.clone();
+    if let Some(path) = &args.input {
+        list.extend(input::read_smiles_file(path)?);
+    }
+    if list.is_empty() {
+        return Err(Error::Input("give at least one SMILES, or --input FILE".into()));
+    }
+    let groups = open_store(&cli.db)?.groups()?;
+    let mut results = Vec::with_capacity(list.len());
+    for smiles in &list {
+        match annotate(smiles, &groups) {
+            Ok(r) => results.push(r),
+            Err(e) if !batch => return Err(e),
+            Err(e) => results.push(PkaResult { smiles: smiles.clone(), sites: vec![], error: Some(e.to_string()) }),
+        }
+    }
+    match cli.format {
+        Format::Table => Ok(report::table(&rows(&results))),
+        Format::Csv => report::csv(&rows(&results)),
+        Format::Json => report::json(&results),
+        Format::Jsonl => report::jsonl(&results),
+    }
+}

@@ -1,0 +1,68 @@
+//! Turning results into text: aligned tables, CSV and JSON, and the number formats a chemist
+//! reads (mmol, mg, mL with sensible significant figures).
+
+use serde::Serialize;
+use tabled::settings::Style;
+use tabled::{Table, Tabled};
+
+use crate::error::{Error, Result};
+
+/// An aligned table of `rows` in the project's look.
+pub fn table<T: Tabled>(rows: &[T]) -> String {
+    let mut t = Table::new(rows);
+    t.with(Style::rounded());
+    format!("{t}\n")
+}
+
+/// CSV with a header row.
+pub fn csv<T: Serialize>(rows: &[T]) -> Result<String> {
+    let mut w = csv::Writer::from_writer(Vec::new());
+    for row in rows {
+        w.serialize(row).map_err(|e| Error::Internal(format!("csv: {e}")))?;
+    }
+    let bytes = w.into_inner().map_err(|e| Error::Internal(format!("csv: {e}")))?;
+    String::from_utf8(bytes).map_err(|e| Error::Internal(format!("csv: {e}")))
+}
+
+/// Pretty JSON followed by a newline.
+pub fn json<T: Serialize + ?Sized>(value: &T) -> Result<String> {
+    serde_json::to_string_pretty(value)
+        .map(|s| s + "\n")
+        .map_err(|e| Error::Internal(format!("json: {e}")))
+}
+
+/// One compact JSON object per line.
+pub fn jsonl<T: Serialize>(values: &[T]) -> Result<String> {
+    let mut out = String::new();
+    for v in values {
+        out += &serde_json::to_string(v).map_err(|e| Error::Internal(format!("json: {e}")))?;
+        out.push('\n');
+    }
+    Ok(out)
+}
+
+/// A number with `sig` significant figures, without exponent for lab-sized values.
+pub fn sig(x: f64, sig: usize) -> String {
+    if !x.is_finite() {
+        return "-".into();
+    }
+    if x == 0.0 {
+        return "0".into();
+    }
+    let magnitude = x.abs().log10().floor() as i32;
+    let decimals = (sig as i32 - 1 - magnitude).max(0) as usize;
+    format!("{x:.decimals$}")
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn significant_figures() {
+        assert_eq!(sig(3.14159, 3), "3.14");
+        assert_eq!(sig(0.0012345, 3), "0.00123");
+        assert_eq!(sig(1234.5, 3), "1235");
+        assert_eq!(sig(0.0, 3), "0");
+    }
+}

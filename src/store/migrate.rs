@@ -1,0 +1,80 @@
+//! Versioned schema migrations. Each `migrations/NNNN_name.sql` file is embedded in the binary
+//! and applied once, in order, inside its own transaction; the applied versions are recorded
+//! in `schema_migrations`, so a store made by an older phdose upgrades in place and the user's
+//! tables are carried along untouched.
+
+use rusqlite::Connection;
+
+use crate::error::{Error, Result};
+
+/// The embedded migrations, in the order they must be applied.
+pub const MIGRATIONS: &[(u32, &str, &str)] = &[(
+    1,
+    "groups",
+    include_str!("../../migrations/0001_groups.sql"),
+)];
+
+/// Applies every migration newer than the store's recorded version. Returns how many ran.
+pub fn migrate(conn: &mut Connection) -> Result<usize> {
+    conn.execute_batch(
+        "CREATE TABLE IF NOT EXISTS schema_migrations (
+             version    INTEGER PRIMARY KEY,
+             name       TEXT NOT NULL,
+             applied_at TEXT NOT NULL DEFAULT (datetime('now'))
+         );",
+    )?;
+    let current: u32 = conn.query_row(
+        "SELECT COALESCE(MAX(version), 0) FROM schema_migrations",
+        [],
+        |row| row.get(0),
+    )?;
+    if let Some(&(latest, _, _)) = MIGRATIONS.last()
+        && current > latest
+    {
+        return Err(Error::Store(format!(
+            "the store was written by a newer phdose (schema version {current}, this program \
+             knows {latest}); use that version or another --db file"
+        )));
+    }
+    let mut applied = 0;
+    for &(version, name, sql) in MIGRATIONS.iter().filter(|m| m.0 > current) {
+        let tx = conn.transaction()?;
+        tx.execute_batch(sql)
+            .map_err(|e| Error::Store(format!("migration {version:04}_{name} failed: {e}")))?;
+        tx.execute(
+            "INSERT INTO schema_migrations (version, name) VALUES (?1, ?2)",
+            rusqlite::params![version, name],
+        )?;
+        tx.commit()?;
+        applied += 1;
+    }
+    Ok(applied)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn migrations_are_numbered_in_order() {
+        for (i, m) in MIGRATIONS.iter().enumerate() {
+            assert_eq!(m.0 as usize, i + 1, "migration {} out of order", m.1);
+        }
+    }
+
+    #[test]
+    fn migrating_twice_applies_nothing_the_second_time() {
+        let mut conn = Connection::open_in_memory().unwrap();
+        assert_eq!(migrate(&mut conn).unwrap(), MIGRATIONS.len());
+        assert_eq!(migrate(&mut conn).unwrap(), 0);
+    }
+
+    #[test]
+    fn a_store_from_a_newer_program_is_refused() {
+        let mut conn = Connection::open_in_memory().unwrap();
+        migrate(&mut conn).unwrap();
+        conn.execute("INSERT INTO schema_migrations (version, name) VALUES (999, 'future')", [])
+            .unwrap();
+        assert!(matches!(migrate(&mut conn), Err(Error::Store(_))));
+    }
+}

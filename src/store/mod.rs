@@ -1,0 +1,127 @@
+//! The local SQLite store: where it lives, opening and migrating it, and refreshing the
+//! built-in tables from the `data/*.csv` files embedded in the binary.
+//!
+//! Built-in tables (`builtin_*`) are rewritten whenever the program's data version changes;
+//! the user's own tables are never touched by that refresh.
+
+pub mod builtin;
+pub mod migrate;
+
+use std::path::{Path, PathBuf};
+
+use rusqlite::{Connection, OpenFlags};
+
+use crate::acidity::group::Group;
+use crate::error::{Error, Result};
+
+/// An open, migrated store with up-to-date built-in tables.
+pub struct Store {
+    conn: Connection,
+    path: PathBuf,
+}
+
+/// Where the store lives when `--db` is not given: `$PHDOSE_DB`, else the platform data
+/// directory (`$XDG_DATA_HOME/phdose/phdose.sqlite`, `~/.local/share/phdose/phdose.sqlite`).
+pub fn default_path() -> Result<PathBuf> {
+    if let Some(p) = std::env::var_os("PHDOSE_DB").filter(|p| !p.is_empty()) {
+        return Ok(PathBuf::from(p));
+    }
+    let base = match std::env::var_os("XDG_DATA_HOME").filter(|p| !p.is_empty()) {
+        Some(dir) => PathBuf::from(dir),
+        None => match std::env::var_os("HOME").filter(|p| !p.is_empty()) {
+            Some(home) => PathBuf::from(home).join(".local").join("share"),
+            None => {
+                return Err(Error::Store(
+                    "no HOME or XDG_DATA_HOME to place the store in; pass --db PATH or set \
+                     PHDOSE_DB"
+                        .into(),
+                ));
+            }
+        },
+    };
+    Ok(base.join("phdose").join("phdose.sqlite"))
+}
+
+impl Store {
+    /// Opens (creating if needed) the store at `path`, migrates it and refreshes the built-in
+    /// tables. A file that is not a phdose store is reported and left untouched.
+    pub fn open(path: &Path) -> Result<Store> {
+        if let Some(dir) = path.parent().filter(|d| !d.as_os_str().is_empty()) {
+            std::fs::create_dir_all(dir).map_err(|e| {
+                Error::Store(format!("cannot create the folder {}: {e}", dir.display()))
+            })?;
+        }
+        let flags = OpenFlags::SQLITE_OPEN_READ_WRITE | OpenFlags::SQLITE_OPEN_CREATE;
+        let conn = Connection::open_with_flags(path, flags)
+            .map_err(|e| Error::Store(format!("cannot open {}: {e}", path.display())))?;
+        Self::prepare(conn, path)
+    }
+
+    /// An in-memory store with the built-in tables, for tests and one-off runs.
+    pub fn in_memory() -> Result<Store> {
+        Self::prepare(Connection::open_in_memory()?, Path::new(":memory:"))
+    }
+
+    fn prepare(mut conn: Connection, path: &Path) -> Result<Store> {
+        let foreign = |e: rusqlite::Error| {
+            Error::Store(format!(
+                "{} is not a phdose store ({e}); it was left untouched — pass another --db PATH",
+                path.display()
+            ))
+        };
+        conn.busy_timeout(std::time::Duration::from_secs(5)).map_err(foreign)?;
+        // Reading the schema fails on a file that is not SQLite at all; checking the tables
+        // catches a SQLite file of some other program before we write anything into it.
+        let tables: Vec<String> = conn
+            .prepare("SELECT name FROM sqlite_master WHERE type = 'table'")
+            .and_then(|mut s| s.query_map([], |r| r.get(0))?.collect())
+            .map_err(foreign)?;
+        if !tables.is_empty() && !tables.iter().any(|t| t == "schema_migrations") {
+            return Err(Error::Store(format!(
+                "{} holds a database that phdose did not make (tables: {}); it was left \
+                 untouched — pass another --db PATH",
+                path.display(),
+                tables.join(", ")
+            )));
+        }
+        migrate::migrate(&mut conn)?;
+        builtin::refresh(&mut conn)?;
+        Ok(Store { conn, path: path.to_path_buf() })
+    }
+
+    /// The file this store lives in.
+    pub fn path(&self) -> &Path {
+        &self.path
+    }
+
+    /// The built-in group table, in priority order.
+    pub fn groups(&self) -> Result<Vec<Group>> {
+        let mut stmt = self.conn.prepare(
+            "SELECT name, smarts, site, kind, pka, pka_low, pka_high, source
+             FROM builtin_groups ORDER BY priority",
+        )?;
+        let rows = stmt.query_map([], |r| {
+            Ok((
+                r.get::<_, String>(0)?,
+                r.get::<_, String>(1)?,
+                r.get::<_, i64>(2)?,
+                r.get::<_, String>(3)?,
+                r.get::<_, Option<f64>>(4)?,
+                r.get::<_, Option<f64>>(5)?,
+                r.get::<_, Option<f64>>(6)?,
+                r.get::<_, String>(7)?,
+            ))
+        })?;
+        let mut groups = Vec::new();
+        for row in rows {
+            let (name, smarts, site, kind, pka, low, high, source) = row?;
+            groups.push(Group::new(name, &smarts, site, &kind, pka, low, high, source)?);
+        }
+        Ok(groups)
+    }
+
+    /// The underlying connection, for the other store modules.
+    pub fn connection(&self) -> &Connection {
+        &self.conn
+    }
+}
