@@ -7,8 +7,10 @@
 pub mod acidity;
 pub mod chem;
 pub mod cli;
+pub mod equilibrium;
 pub mod error;
 pub mod report;
 pub mod store;
+pub mod units;
 
 pub use error::{Error, ParseError, Result};

@@ -1,0 +1,228 @@
+//! Solutes as protolytes: a total amount, ionizable sites treated as independent, and a fixed
+//! (permanent) charge. Gives, at a pH, each site's fraction ionized, the solute's mean charge,
+//! and the fraction of the form with every site neutral (the extractable one).
+//!
+//! Acid site: HA (0) <-> A- (-1). Base site: B (0) <-> BH+ (+1). In both cases the pKa is that
+//! of the conjugate acid, as handbooks tabulate it.
+
+use crate::error::{Error, Result};
+
+/// Which way a site ionizes.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum SiteKind {
+    /// Neutral form gives up a proton.
+    Acid,
+    /// Neutral form takes one up.
+    Base,
+}
+
+/// One ionizable site.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Site {
+    pub kind: SiteKind,
+    /// pKa of the conjugate acid of the pair (HA for an acid, BH+ for a base).
+    pub pka: f64,
+}
+
+impl Site {
+    pub fn acid(pka: f64) -> Site {
+        Site {
+            kind: SiteKind::Acid,
+            pka,
+        }
+    }
+
+    pub fn base(pka: f64) -> Site {
+        Site {
+            kind: SiteKind::Base,
+            pka,
+        }
+    }
+
+    /// Fraction in the charged form (A- or BH+) at `ph`.
+    pub fn fraction_ionized(&self, ph: f64) -> f64 {
+        match self.kind {
+            // [A-]/[HA] = 10^(pH - pKa)
+            SiteKind::Acid => logistic(ph - self.pka),
+            // [BH+]/[B] = 10^(pKa - pH)
+            SiteKind::Base => logistic(self.pka - ph),
+        }
+    }
+
+    /// Fraction in the neutral form (HA or B) at `ph`, computed directly rather than as
+    /// 1 - ionized so that tiny fractions keep their digits.
+    pub fn fraction_neutral(&self, ph: f64) -> f64 {
+        match self.kind {
+            SiteKind::Acid => logistic(self.pka - ph),
+            SiteKind::Base => logistic(ph - self.pka),
+        }
+    }
+
+    /// Charge of the ionized form.
+    fn charge(&self) -> f64 {
+        match self.kind {
+            SiteKind::Acid => -1.0,
+            SiteKind::Base => 1.0,
+        }
+    }
+}
+
+/// r / (1 + r) with r = 10^x, without overflow: 0 for very negative x, 1 for very positive.
+fn logistic(x: f64) -> f64 {
+    if x > 0.0 {
+        1.0 / (1.0 + 10f64.powf(-x))
+    } else {
+        let r = 10f64.powf(x);
+        r / (1.0 + r)
+    }
+}
+
+/// A dissolved compound with ionizable sites.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Protolyte {
+    /// Total moles in the layer, all forms together.
+    pub total_mol: f64,
+    pub sites: Vec<Site>,
+    /// Charge that no pH removes (a quaternary ammonium is +1).
+    pub fixed_charge: f64,
+}
+
+/// A protolyte's state at one pH.
+#[derive(Debug, Clone, PartialEq)]
+pub struct SoluteState {
+    /// Average charge per molecule, fixed charge included.
+    pub mean_charge: f64,
+    /// Fraction with every site in its neutral form.
+    pub fraction_neutral: f64,
+    /// Per site, in the order of `Protolyte::sites`: fraction in the charged form.
+    pub fraction_ionized: Vec<f64>,
+}
+
+impl Protolyte {
+    pub fn new(total_mol: f64, sites: Vec<Site>, fixed_charge: f64) -> Protolyte {
+        Protolyte {
+            total_mol,
+            sites,
+            fixed_charge,
+        }
+    }
+
+    /// Rejects amounts and constants that would make the charge balance meaningless.
+    pub fn validate(&self) -> Result<()> {
+        if !self.total_mol.is_finite() || self.total_mol < 0.0 {
+            return Err(Error::Input(format!(
+                "solute amount must be a finite non-negative number of moles, not {}",
+                self.total_mol
+            )));
+        }
+        if !self.fixed_charge.is_finite() {
+            return Err(Error::Input("fixed charge must be finite".into()));
+        }
+        if let Some(site) = self.sites.iter().find(|s| !s.pka.is_finite()) {
+            return Err(Error::Input(format!(
+                "pKa must be finite, not {}",
+                site.pka
+            )));
+        }
+        Ok(())
+    }
+
+    /// Average charge per molecule at `ph`.
+    pub fn mean_charge(&self, ph: f64) -> f64 {
+        self.fixed_charge
+            + self
+                .sites
+                .iter()
+                .map(|s| s.charge() * s.fraction_ionized(ph))
+                .sum::<f64>()
+    }
+
+    /// Fraction with every site neutral: the product of the per-site neutral fractions,
+    /// since the sites are independent.
+    pub fn fraction_neutral(&self, ph: f64) -> f64 {
+        self.sites.iter().map(|s| s.fraction_neutral(ph)).product()
+    }
+
+    /// Everything the report needs about this solute at `ph`.
+    pub fn state(&self, ph: f64) -> SoluteState {
+        SoluteState {
+            mean_charge: self.mean_charge(ph),
+            fraction_neutral: self.fraction_neutral(ph),
+            fraction_ionized: self.sites.iter().map(|s| s.fraction_ionized(ph)).collect(),
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn half_ionized_at_the_pka() {
+        // Henderson–Hasselbalch: at pH = pKa the two forms are equal.
+        assert!((Site::acid(4.76).fraction_ionized(4.76) - 0.5).abs() < 1e-15);
+        assert!((Site::base(10.6).fraction_ionized(10.6) - 0.5).abs() < 1e-15);
+    }
+
+    #[test]
+    fn one_unit_away_is_ten_to_one() {
+        // [A-]/[HA] = 10 at pH = pKa + 1: ionized fraction 10/11.
+        let f = Site::acid(4.0).fraction_ionized(5.0);
+        assert!((f - 10.0 / 11.0).abs() < 1e-15);
+        // A base one unit above its pKa is 1/11 protonated.
+        let f = Site::base(9.0).fraction_ionized(10.0);
+        assert!((f - 1.0 / 11.0).abs() < 1e-15);
+    }
+
+    #[test]
+    fn extremes_stay_finite() {
+        let s = Site::acid(4.0);
+        for ph in [-1e6, -400.0, 0.0, 400.0, 1e6] {
+            let (a, b) = (s.fraction_ionized(ph), s.fraction_neutral(ph));
+            assert!(a.is_finite() && b.is_finite());
+            assert!((a + b - 1.0).abs() < 1e-15);
+        }
+        // Neutral fraction keeps digits far from the pKa: 10^-10 / (1 + 10^-10).
+        let tiny = s.fraction_neutral(14.0);
+        assert!((tiny / 1e-10 - 1.0).abs() < 1e-9);
+    }
+
+    #[test]
+    fn zwitterion_like_amino_acid() {
+        // Independent carboxylic acid (2.3) and amine (9.7) sites, values as for glycine
+        // (common practice). At pH 6 the mean charge is near zero but the all-neutral form
+        // is tiny: product of per-site neutral fractions.
+        let p = Protolyte::new(1e-3, vec![Site::acid(2.3), Site::base(9.7)], 0.0);
+        let st = p.state(6.0);
+        let acid_neutral = 1.0 / (1.0 + 10f64.powf(6.0 - 2.3));
+        let base_neutral = 1.0 / (1.0 + 10f64.powf(9.7 - 6.0));
+        assert!((st.fraction_neutral - acid_neutral * base_neutral).abs() < 1e-18);
+        let charge = (1.0 - base_neutral) - (1.0 - acid_neutral);
+        assert!((st.mean_charge - charge).abs() < 1e-12);
+        assert_eq!(st.fraction_ionized.len(), 2);
+    }
+
+    #[test]
+    fn fixed_charge_stays() {
+        let quat = Protolyte::new(1e-3, vec![], 1.0);
+        assert_eq!(quat.mean_charge(1.0), 1.0);
+        assert_eq!(quat.mean_charge(13.0), 1.0);
+        assert_eq!(quat.fraction_neutral(7.0), 1.0);
+    }
+
+    #[test]
+    fn rejects_nonsense() {
+        assert!(Protolyte::new(-1.0, vec![], 0.0).validate().is_err());
+        assert!(Protolyte::new(f64::NAN, vec![], 0.0).validate().is_err());
+        assert!(
+            Protolyte::new(1.0, vec![Site::acid(f64::INFINITY)], 0.0)
+                .validate()
+                .is_err()
+        );
+        assert!(
+            Protolyte::new(1.0, vec![Site::acid(4.0)], 0.0)
+                .validate()
+                .is_ok()
+        );
+    }
+}
