@@ -1,0 +1,221 @@
+//! `phdose adjust`: how much reagent brings an aqueous layer to a target pH.
+
+use serde::Serialize;
+use tabled::Tabled;
+
+use super::{Cli, Format, open_store};
+use crate::equilibrium::{Conditions, Reagent};
+use crate::error::{Error, ParseError, Result};
+use crate::report::{self, sig};
+use crate::units::{self, fmt_mass, fmt_moles, fmt_ph, fmt_volume};
+use crate::workup::adjust::{Adjustment, Request, SoluteInput, adjust};
+
+#[derive(Debug, clap::Args)]
+pub struct Args {
+    /// A dissolved compound and its amount (`2.5mmol`, `0.30g`, `150mg`, `0.1M`); repeat for
+    /// each. Two values, or one quoted value with a space between them.
+    #[arg(long, num_args = 1..=2, value_names = ["SMILES", "AMOUNT"], required = true, allow_hyphen_values = true)]
+    pub solute: Vec<Vec<String>>,
+    /// Volume of the aqueous layer before any reagent (`50mL`).
+    #[arg(long, value_name = "VOLUME")]
+    pub water: String,
+    /// Target pH, or several separated by commas (`2,8,12`).
+    #[arg(long = "to-ph", value_name = "PH", allow_hyphen_values = true)]
+    pub to_ph: String,
+    /// Reagent name from the table (`hcl`, `naoh`, `nahco3`, `koh`, `na2co3`, `k2co3`).
+    #[arg(long, value_name = "NAME")]
+    pub reagent: String,
+    /// Stock form (`solid`, `1M`, `37%`, `sat`); default 1M, else saturated, else solid.
+    #[arg(long, value_name = "FORM")]
+    pub stock: Option<String>,
+    /// Temperature in °C (default 25).
+    #[arg(long, value_name = "C", default_value = "25")]
+    pub temp: String,
+    /// Ideal solution: activity coefficients 1 (the only model so far).
+    #[arg(long)]
+    pub ideal: bool,
+    /// CO2 handling: closed (all carbon stays), vented, air. Only `closed` is computed so far.
+    #[arg(long, value_name = "MODE")]
+    pub co2: Option<String>,
+    /// Volume of an organic layer in contact (not supported yet).
+    #[arg(long, value_name = "VOLUME")]
+    pub organic: Option<String>,
+    /// Organic solvent name (not supported yet).
+    #[arg(long, value_name = "NAME")]
+    pub solvent: Option<String>,
+    /// Replace a compound's pKa values (its sites in atom order): `--pka SMILES 4.2,9.8`.
+    #[arg(long, num_args = 2, value_names = ["SMILES", "VALUES"], allow_hyphen_values = true)]
+    pub pka: Vec<Vec<String>>,
+    /// Ignore stored measured values and use the group estimates.
+    #[arg(long)]
+    pub estimate_only: bool,
+}
+
+/// Splits `--solute` values into SMILES and amount text.
+fn solute_pair(values: &[String]) -> Result<(String, String)> {
+    match values {
+        [smiles, amount] => Ok((smiles.clone(), amount.clone())),
+        [one] => {
+            let mut parts = one.split_whitespace();
+            match (parts.next(), parts.next(), parts.next()) {
+                (Some(s), Some(a), None) => Ok((s.to_string(), a.to_string())),
+                _ => Err(Error::Input(format!(
+                    "--solute needs a SMILES and an amount (`--solute 'CCO' 2mmol`), got '{one}'"
+                ))),
+            }
+        }
+        _ => Err(Error::Input("--solute takes a SMILES and an amount".into())),
+    }
+}
+
+fn parse_pka_values(text: &str) -> Result<Vec<f64>> {
+    let mut out = Vec::new();
+    let mut offset = 0;
+    for part in text.split(',') {
+        let value: f64 = part.trim().parse().map_err(|_| {
+            ParseError::new("pKa list", text, offset, format!("'{}' is not a number", part.trim()))
+        })?;
+        if !(-5.0..=20.0).contains(&value) {
+            return Err(ParseError::new("pKa list", text, offset, "a pKa must lie between -5 and 20").into());
+        }
+        out.push(value);
+        offset += part.len() + 1;
+    }
+    Ok(out)
+}
+
+/// Turns the flags into a request, refusing what is not computed yet.
+pub fn request(args: &Args) -> Result<Request> {
+    if args.organic.is_some() || args.solvent.is_some() {
+        return Err(Error::Input("--organic and --solvent are not supported yet (one aqueous layer only)".into()));
+    }
+    match args.co2.as_deref() {
+        None | Some("closed") => {}
+        Some(mode @ ("vented" | "air")) => {
+            return Err(Error::Input(format!("--co2 {mode} is not supported yet; use --co2 closed")));
+        }
+        Some(other) => return Err(Error::Input(format!("--co2 '{other}': use closed, vented or air"))),
+    }
+    let temperature = units::parse_temperature(&args.temp)?;
+    let conditions = Conditions::new(temperature)?;
+    let water_l = units::parse_volume(&args.water)?.litres;
+    let targets = units::parse_ph_list(&args.to_ph)?;
+    let mut solutes = Vec::new();
+    for values in &args.solute {
+        let (smiles, amount_text) = solute_pair(values)?;
+        let amount = units::parse_amount(&amount_text)?;
+        solutes.push(SoluteInput { smiles, amount, pka_override: None });
+    }
+    for pair in &args.pka {
+        let (smiles, values) = (&pair[0], &pair[1]);
+        let target = solutes.iter_mut().find(|s| &s.smiles == smiles).ok_or_else(|| {
+            Error::Input(format!("--pka names {smiles}, which is not one of the --solute SMILES"))
+        })?;
+        target.pka_override = Some(parse_pka_values(values)?);
+    }
+    Ok(Request {
+        solutes,
+        water_l,
+        targets,
+        reagent: args.reagent.clone(),
+        stock: args.stock.clone(),
+        conditions,
+    })
+}
+
+#[derive(Tabled, Serialize)]
+struct DoseRow {
+    #[tabled(rename = "target pH")]
+    target_ph: String,
+    reagent: String,
+    amount: String,
+    equiv: String,
+    #[tabled(rename = "weigh / measure")]
+    measure: String,
+    #[tabled(rename = "conc. in layer")]
+    conc: String,
+    #[tabled(rename = "aqueous volume")]
+    volume: String,
+    #[tabled(rename = "pH reached")]
+    ph: String,
+}
+
+#[derive(Tabled)]
+struct SoluteRow {
+    #[tabled(rename = "pH")]
+    ph: String,
+    smiles: String,
+    amount: String,
+    sites: String,
+    #[tabled(rename = "% neutral")]
+    neutral: String,
+    #[tabled(rename = "mean charge")]
+    charge: String,
+}
+
+fn dose_row(a: &Adjustment) -> DoseRow {
+    let measure = match (a.stock_volume_ml, a.reagent_mass_g) {
+        (Some(ml), _) => format!("{} of {} {}", fmt_volume(ml / 1e3), a.stock, a.reagent),
+        (None, Some(g)) => format!("{} of solid {}", fmt_mass(g), a.reagent),
+        (None, None) => String::new(),
+    };
+    DoseRow {
+        target_ph: fmt_ph(a.target_ph),
+        reagent: format!("{} ({})", a.reagent, a.stock),
+        amount: fmt_moles(a.reagent_mol),
+        equiv: a.equivalents.map(|e| sig(e, 3)).unwrap_or_default(),
+        measure,
+        conc: format!("{} M", sig(a.reagent_conc_mol_l, 3)),
+        volume: fmt_volume(a.aqueous_volume_ml / 1e3),
+        ph: fmt_ph(a.ph),
+    }
+}
+
+fn table(results: &[Adjustment]) -> String {
+    let mut out = report::table(&results.iter().map(dose_row).collect::<Vec<_>>());
+    let mut rows = Vec::new();
+    for a in results {
+        for s in &a.solutes {
+            let sites = s
+                .sites
+                .iter()
+                .map(|x| format!("{} {} {:.1}", x.group, x.kind.as_str(), x.pka))
+                .collect::<Vec<_>>()
+                .join("; ");
+            rows.push(SoluteRow {
+                ph: fmt_ph(a.ph),
+                smiles: s.smiles.clone(),
+                amount: fmt_moles(s.amount_mol),
+                sites: if sites.is_empty() { "none".into() } else { sites },
+                neutral: format!("{:.1}", 100.0 * s.fraction_neutral),
+                charge: format!("{:+.2}", s.mean_charge),
+            });
+        }
+    }
+    out += &report::table(&rows);
+    if let Some(first) = results.first() {
+        out += &format!("Layer before reagent: pH {}\n", fmt_ph(first.start_ph));
+        for note in &first.notes {
+            out += &format!("Note: {note}\n");
+        }
+        out += "Cautions:\n";
+        for c in &first.cautions {
+            out += &format!("  - {c}\n");
+        }
+    }
+    out
+}
+
+pub fn run(args: &Args, cli: &Cli) -> Result<String> {
+    let request = request(args)?;
+    let groups = open_store(&cli.db)?.groups()?;
+    let catalogue = Reagent::builtin()?;
+    let results = adjust(&request, &groups, &catalogue)?;
+    match cli.format {
+        Format::Table => Ok(table(&results)),
+        Format::Csv => report::csv(&results.iter().map(dose_row).collect::<Vec<_>>()),
+        Format::Json if results.len() == 1 => report::json(&results[0]),
+        Format::Json => report::json(&results),
+        Format::Jsonl => report::jsonl(&results),
+    }
+}

@@ -1,0 +1,4 @@
+//! Workup calculations that a chemist asks for: bring an aqueous layer to a pH.
+
+pub mod adjust;
+pub mod cautions;
