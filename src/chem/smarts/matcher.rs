@@ -88,52 +88,80 @@ impl<'a, 'm> Context<'a, 'm> {
             return report(&state.map);
         }
         let target = self.target;
-        let step = &graph.steps[k];
-        let try_atom = |ctx: &mut Self,
-                        state: &mut State,
-                        m: usize,
-                        report: &mut dyn FnMut(&[usize]) -> bool| {
-            if state.used[m] || !ctx.atom_ok(state.id, k, m) {
-                return false;
-            }
-            let closed = step.closures.iter().all(|&(j, qb)| {
-                target
-                    .bond_between(m, state.map[j])
-                    .is_some_and(|b| bond_ok(target, &graph.bonds[qb].expr, b))
-            });
-            if !closed {
-                return false;
-            }
-            state.map[k] = m;
-            state.used[m] = true;
-            let stop = ctx.extend(state, k + 1, report);
-            state.used[m] = false;
-            state.map[k] = usize::MAX;
-            stop
-        };
-        match step.parent {
+        match graph.steps[k].parent {
             Some((p, qb)) => {
                 for &(m, b) in &target.neighbours[state.map[p]] {
-                    if bond_ok(target, &graph.bonds[qb].expr, b) && try_atom(self, state, m, report)
+                    if bond_ok(target, &graph.bonds[qb].expr, b) && self.place(state, k, m, report)
                     {
                         return true;
                     }
                 }
             }
             None => {
-                let anchored = state.anchor.filter(|_| k == 0);
-                let range = match anchored {
+                let range = match state.anchor.filter(|_| k == 0) {
                     Some(a) => a..a + 1,
                     None => 0..target.atom_count(),
                 };
                 for m in range {
-                    if try_atom(self, state, m, report) {
+                    if self.place(state, k, m, report) {
                         return true;
                     }
                 }
             }
         }
         false
+    }
+
+    /// Tries molecule atom `m` for pattern atom `k` (its parent bond already checked): atom
+    /// test, ring-closure bonds, then the rest of the pattern.
+    fn place(
+        &mut self,
+        state: &mut State,
+        k: usize,
+        m: usize,
+        report: &mut dyn FnMut(&[usize]) -> bool,
+    ) -> bool {
+        if state.used[m] || !self.atom_ok(state.id, k, m) {
+            return false;
+        }
+        let graph = self.graph(state.id);
+        let target = self.target;
+        let closed = graph.steps[k].closures.iter().all(|&(j, qb)| {
+            target
+                .bond_between(m, state.map[j])
+                .is_some_and(|b| bond_ok(target, &graph.bonds[qb].expr, b))
+        });
+        if !closed {
+            return false;
+        }
+        state.map[k] = m;
+        state.used[m] = true;
+        let stop = self.extend(state, k + 1, report);
+        state.used[m] = false;
+        state.map[k] = usize::MAX;
+        stop
+    }
+
+    /// Whether `mapping` (pattern atom → molecule atom) is an embedding of graph `id`: distinct
+    /// atoms, every atom test true, every pattern bond present in the molecule and accepted.
+    pub fn is_embedding(&mut self, id: usize, mapping: &[usize]) -> bool {
+        let graph = self.graph(id);
+        let n = self.target.atom_count();
+        if mapping.len() != graph.atoms.len() || mapping.iter().any(|&m| m >= n) {
+            return false;
+        }
+        let mut used = vec![false; n];
+        for (k, &m) in mapping.iter().enumerate() {
+            if std::mem::replace(&mut used[m], true) || !self.atom_ok(id, k, m) {
+                return false;
+            }
+        }
+        let target = self.target;
+        graph.bonds.iter().all(|q| {
+            target
+                .bond_between(mapping[q.a], mapping[q.b])
+                .is_some_and(|b| bond_ok(target, &q.expr, b))
+        })
     }
 
     /// Whether pattern atom `k` of graph `id` accepts molecule atom `m` (memoised).

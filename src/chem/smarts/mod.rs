@@ -118,6 +118,14 @@ impl Pattern {
         found
     }
 
+    /// Whether `mapping` (molecule atom per pattern atom) is an embedding of the pattern. Of
+    /// several embeddings with one atom set `matches` lists only one; this checks any other.
+    pub fn is_embedding(&self, target: &Target, mapping: &[usize]) -> bool {
+        let mut ctx = Context::new(target, &self.graph, &self.recursive);
+        let main = ctx.main_id();
+        ctx.is_embedding(main, mapping)
+    }
+
     fn run(
         &self,
         target: &Target,
@@ -281,6 +289,30 @@ mod tests {
     }
 
     #[test]
+    fn bad_text_is_an_error_value_never_a_panic() {
+        let good = "[$([NX3;H2,H1;!$(NC=O)])]C(=O)[O-,OH1].c1cc%10ccc[se]1%10-[13CH2:4]/C=C\\*";
+        assert!(Pattern::parse(good).is_ok());
+        for end in 0..good.len() {
+            let _ = Pattern::parse(&good[..end]);
+            let _ = Pattern::parse(&good[end..]);
+        }
+        for bad in [
+            "C\u{394}",
+            "[C\u{e9}]",
+            "\u{e9}",
+            "[#6;\u{394}]",
+            "C%\u{394}1",
+            "[$(\u{394})]",
+        ] {
+            let e = Pattern::parse(bad).unwrap_err();
+            assert!(
+                e.position < bad.len() && bad.is_char_boundary(e.position),
+                "{bad}"
+            );
+        }
+    }
+
+    #[test]
     fn anchored_test_and_api() {
         let acid = acetic_acid();
         let t = Target::new(&acid);
@@ -288,6 +320,17 @@ mod tests {
         assert!(p.is_match_at(&t, 2));
         assert!(!p.is_match_at(&t, 3));
         assert!(!p.is_match_at(&t, 99));
+        assert!(p.is_embedding(&t, &[2, 1]));
+        assert!(!p.is_embedding(&t, &[3, 1]), "O3-C1 is a single bond");
+        assert!(!p.is_embedding(&t, &[2]));
+        assert!(!p.is_embedding(&t, &[2, 2]));
+        assert!(!p.is_embedding(&t, &[2, 0]), "not bonded");
+        let sym = Pattern::parse("O~C~O").unwrap();
+        assert_eq!(sym.matches(&acid), vec![vec![2, 1, 3]]);
+        assert!(
+            sym.is_embedding(&t, &[3, 1, 2]),
+            "the mirror embedding is valid too"
+        );
         assert_eq!(p.text(), "O=C");
         let mapped = Pattern::parse("[C:1]=[O:2]").unwrap();
         assert_eq!(mapped.atom_maps(), vec![Some(1), Some(2)]);
