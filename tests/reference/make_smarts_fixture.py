@@ -82,6 +82,12 @@ MOLECULES = [
     "c1nn[nH]n1",  # tetrazole
     "CC(=O)CC(C)=O",  # acetylacetone
     "Clc1ccc(cc1)C(c1ccccc1)N1CCN(C)CC1",  # chlorcyclizine
+    "C1C2CC3CC1CC(C2)C3",  # adamantane
+    "C12C3C4C1C5C2C3C45",  # cubane
+    "c1ccc2cc3ccccc3cc2c1",  # anthracene
+    "O=c1cc[nH]cc1",  # 4-pyridone
+    "Cn1cccc1",  # N-methylpyrrole
+    "c1ccc2c(c1)[nH]c1ccccc12",  # carbazole
 ]
 
 IONIZABLE = [
