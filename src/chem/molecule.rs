@@ -141,6 +141,33 @@ impl Molecule {
         self.rings.ring_bonds.iter().any(|r| r.contains(&bond))
     }
 
+    /// Connected components (dot-separated parts), each as its atoms in ascending order; the
+    /// components are listed in the order of their first atom.
+    pub fn components(&self) -> Vec<Vec<usize>> {
+        let mut seen = vec![false; self.atoms.len()];
+        let mut out = Vec::new();
+        for start in 0..self.atoms.len() {
+            if seen[start] {
+                continue;
+            }
+            seen[start] = true;
+            let mut stack = vec![start];
+            let mut part = Vec::new();
+            while let Some(a) = stack.pop() {
+                part.push(a);
+                for &(nb, _) in &self.adjacency[a] {
+                    if !seen[nb] {
+                        seen[nb] = true;
+                        stack.push(nb);
+                    }
+                }
+            }
+            part.sort_unstable();
+            out.push(part);
+        }
+        out
+    }
+
     /// Net formal charge.
     pub fn charge(&self) -> i32 {
         self.atoms.iter().map(|a| a.charge as i32).sum()

@@ -1,0 +1,251 @@
+//! The subgraph matcher: a depth-first backtracking search (VF2-style) that places pattern
+//! atoms in written order, each one next to the molecule atom already holding its pattern
+//! parent, and checks ring-closure bonds as soon as both ends are placed.
+//!
+//! Candidates are tried in ascending atom index, so embeddings come out in lexicographic order
+//! of their tuples. Atom tests are memoised per (pattern atom, molecule atom) and recursive
+//! `$(...)` results per (sub-pattern, molecule atom), for the whole call.
+
+use super::query::{AtomPrim, BondExpr, BondPrim, QueryGraph};
+use super::target::Target;
+use crate::chem::molecule::Order;
+
+const UNKNOWN: u8 = 0;
+const YES: u8 = 1;
+const NO: u8 = 2;
+
+/// Everything one matching call shares across its main and recursive searches.
+pub(crate) struct Context<'a, 'm> {
+    target: &'a Target<'m>,
+    main: &'a QueryGraph,
+    recursive: &'a [QueryGraph],
+    /// Per graph (recursive ones first, main last): atom-test memo, pattern atom × molecule atom.
+    memo: Vec<Vec<u8>>,
+    /// Per recursive graph: does it match anchored at each molecule atom.
+    anchored: Vec<Vec<u8>>,
+}
+
+impl<'a, 'm> Context<'a, 'm> {
+    pub fn new(target: &'a Target<'m>, main: &'a QueryGraph, recursive: &'a [QueryGraph]) -> Self {
+        let n = target.atom_count();
+        let memo = recursive
+            .iter()
+            .chain(std::iter::once(main))
+            .map(|g| vec![UNKNOWN; g.atoms.len() * n])
+            .collect();
+        Context {
+            target,
+            main,
+            recursive,
+            memo,
+            anchored: vec![vec![UNKNOWN; n]; recursive.len()],
+        }
+    }
+
+    /// Index of the main graph in `memo`.
+    pub fn main_id(&self) -> usize {
+        self.recursive.len()
+    }
+
+    fn graph(&self, id: usize) -> &'a QueryGraph {
+        if id == self.recursive.len() {
+            self.main
+        } else {
+            &self.recursive[id]
+        }
+    }
+
+    /// Runs the search for graph `id`; `anchor` pins its first atom. `report` receives each
+    /// embedding (pattern atom → molecule atom) and returns `true` to stop.
+    pub fn search(
+        &mut self,
+        id: usize,
+        anchor: Option<usize>,
+        report: &mut dyn FnMut(&[usize]) -> bool,
+    ) {
+        let graph = self.graph(id);
+        if graph.atoms.len() > self.target.atom_count() {
+            return;
+        }
+        let mut state = State {
+            id,
+            anchor,
+            map: vec![usize::MAX; graph.atoms.len()],
+            used: vec![false; self.target.atom_count()],
+        };
+        self.extend(&mut state, 0, report);
+    }
+
+    /// Places pattern atom `k`; returns `true` when the caller asked to stop.
+    fn extend(
+        &mut self,
+        state: &mut State,
+        k: usize,
+        report: &mut dyn FnMut(&[usize]) -> bool,
+    ) -> bool {
+        let graph = self.graph(state.id);
+        if k == graph.atoms.len() {
+            return report(&state.map);
+        }
+        let target = self.target;
+        match graph.steps[k].parent {
+            Some((p, qb)) => {
+                for &(m, b) in &target.neighbours[state.map[p]] {
+                    if bond_ok(target, &graph.bonds[qb].expr, b) && self.place(state, k, m, report)
+                    {
+                        return true;
+                    }
+                }
+            }
+            None => {
+                let range = match state.anchor.filter(|_| k == 0) {
+                    Some(a) => a..a + 1,
+                    None => 0..target.atom_count(),
+                };
+                for m in range {
+                    if self.place(state, k, m, report) {
+                        return true;
+                    }
+                }
+            }
+        }
+        false
+    }
+
+    /// Tries molecule atom `m` for pattern atom `k` (its parent bond already checked): atom
+    /// test, ring-closure bonds, then the rest of the pattern.
+    fn place(
+        &mut self,
+        state: &mut State,
+        k: usize,
+        m: usize,
+        report: &mut dyn FnMut(&[usize]) -> bool,
+    ) -> bool {
+        if state.used[m] || !self.atom_ok(state.id, k, m) {
+            return false;
+        }
+        let graph = self.graph(state.id);
+        let target = self.target;
+        let closed = graph.steps[k].closures.iter().all(|&(j, qb)| {
+            target
+                .bond_between(m, state.map[j])
+                .is_some_and(|b| bond_ok(target, &graph.bonds[qb].expr, b))
+        });
+        if !closed {
+            return false;
+        }
+        state.map[k] = m;
+        state.used[m] = true;
+        let stop = self.extend(state, k + 1, report);
+        state.used[m] = false;
+        state.map[k] = usize::MAX;
+        stop
+    }
+
+    /// Whether `mapping` (pattern atom → molecule atom) is an embedding of graph `id`: distinct
+    /// atoms, every atom test true, every pattern bond present in the molecule and accepted.
+    pub fn is_embedding(&mut self, id: usize, mapping: &[usize]) -> bool {
+        let graph = self.graph(id);
+        let n = self.target.atom_count();
+        if mapping.len() != graph.atoms.len() || mapping.iter().any(|&m| m >= n) {
+            return false;
+        }
+        let mut used = vec![false; n];
+        for (k, &m) in mapping.iter().enumerate() {
+            if std::mem::replace(&mut used[m], true) || !self.atom_ok(id, k, m) {
+                return false;
+            }
+        }
+        let target = self.target;
+        graph.bonds.iter().all(|q| {
+            target
+                .bond_between(mapping[q.a], mapping[q.b])
+                .is_some_and(|b| bond_ok(target, &q.expr, b))
+        })
+    }
+
+    /// Whether pattern atom `k` of graph `id` accepts molecule atom `m` (memoised).
+    fn atom_ok(&mut self, id: usize, k: usize, m: usize) -> bool {
+        let slot = k * self.target.atom_count() + m;
+        match self.memo[id][slot] {
+            YES => return true,
+            NO => return false,
+            _ => {}
+        }
+        let graph = self.graph(id);
+        let ok = graph.atoms[k].expr.eval(&mut |p| self.atom_prim(p, m));
+        self.memo[id][slot] = if ok { YES } else { NO };
+        ok
+    }
+
+    fn atom_prim(&mut self, prim: &AtomPrim, m: usize) -> bool {
+        let t = self.target;
+        let mol = t.mol;
+        let atom = &mol.atoms[m];
+        let count = |want: Option<u8>, have: usize| match want {
+            None => have > 0,
+            Some(n) => have == n as usize,
+        };
+        match *prim {
+            AtomPrim::Any | AtomPrim::Chirality => true,
+            AtomPrim::Aromatic => atom.aromatic,
+            AtomPrim::Aliphatic => !atom.aromatic,
+            AtomPrim::Element { number, aromatic } => {
+                atom.element == number && aromatic.is_none_or(|a| a == atom.aromatic)
+            }
+            AtomPrim::Isotope(n) => atom.isotope.unwrap_or(0) == n,
+            AtomPrim::Charge(c) => atom.charge == c,
+            AtomPrim::TotalH(n) => atom.hydrogens() == n,
+            // RDKit 2026.09 counts bracket hydrogens as implicit too (checked: `[h3]` matches
+            // the N of C[NH3+]), so with hydrogens folded into atoms `h` is the total count.
+            AtomPrim::ImplicitH(n) => count(n, atom.hydrogens() as usize),
+            AtomPrim::Degree(n) => mol.degree(m) == n as usize,
+            AtomPrim::Connectivity(n) => mol.connectivity(m) == n as usize,
+            AtomPrim::Valence(n) => mol.valence(m) == n as usize,
+            AtomPrim::RingCount(n) => count(n, t.ring_count(m)),
+            AtomPrim::RingSize(None) => t.smallest_ring(m) > 0,
+            AtomPrim::RingSize(Some(n)) => t.smallest_ring(m) == n as usize,
+            AtomPrim::RingBonds(n) => count(n, t.ring_bonds(m)),
+            AtomPrim::Recursive(r) => self.recursive_match(r, m),
+        }
+    }
+
+    /// Whether recursive pattern `r` matches with its first atom on `m` (memoised).
+    fn recursive_match(&mut self, r: usize, m: usize) -> bool {
+        match self.anchored[r][m] {
+            YES => return true,
+            NO => return false,
+            _ => {}
+        }
+        let mut found = false;
+        self.search(r, Some(m), &mut |_| {
+            found = true;
+            true
+        });
+        self.anchored[r][m] = if found { YES } else { NO };
+        found
+    }
+}
+
+/// The state of one search: which molecule atom holds each placed pattern atom.
+struct State {
+    id: usize,
+    anchor: Option<usize>,
+    map: Vec<usize>,
+    used: Vec<bool>,
+}
+
+fn bond_ok(target: &Target, expr: &BondExpr, bond: usize) -> bool {
+    expr.eval(&mut |p| match p {
+        BondPrim::Single => target.plain(bond, Order::Single),
+        BondPrim::Double => target.plain(bond, Order::Double),
+        BondPrim::Triple => target.plain(bond, Order::Triple),
+        BondPrim::Aromatic => target.mol.bonds[bond].aromatic,
+        BondPrim::Any => true,
+        BondPrim::Ring => target.bond_in_ring(bond),
+        BondPrim::Implicit => {
+            let b = &target.mol.bonds[bond];
+            b.aromatic || b.order == Order::Single
+        }
+    })
+}

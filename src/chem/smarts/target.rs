@@ -1,0 +1,214 @@
+//! A molecule prepared for matching: neighbours sorted by atom index (so that matches come out
+//! in a fixed order) and ring facts per atom and bond computed once, not once per query atom.
+//! Build one `Target` per molecule and run every pattern of a table against it.
+
+use crate::chem::molecule::{Molecule, Order};
+
+/// A molecule with the facts SMARTS primitives ask about, computed once.
+#[derive(Debug, Clone)]
+pub struct Target<'m> {
+    pub(crate) mol: &'m Molecule,
+    /// (neighbour, bond index), ascending by neighbour.
+    pub(crate) neighbours: Vec<Vec<(usize, usize)>>,
+    ring_count: Vec<usize>,
+    /// Smallest SSSR ring size, 0 when the atom is in no ring.
+    smallest_ring: Vec<usize>,
+    ring_bonds: Vec<usize>,
+    bond_in_ring: Vec<bool>,
+}
+
+impl<'m> Target<'m> {
+    pub fn new(mol: &'m Molecule) -> Self {
+        let n = mol.atoms.len();
+        let neighbours = mol
+            .adjacency
+            .iter()
+            .map(|list| {
+                let mut list = list.clone();
+                list.sort_unstable();
+                list
+            })
+            .collect();
+        let mut ring_count = vec![0; n];
+        let mut smallest_ring = vec![0; n];
+        for ring in &mol.rings.rings {
+            for &a in ring {
+                ring_count[a] += 1;
+                if smallest_ring[a] == 0 || ring.len() < smallest_ring[a] {
+                    smallest_ring[a] = ring.len();
+                }
+            }
+        }
+        let mut bond_in_ring = vec![false; mol.bonds.len()];
+        for &b in mol.rings.ring_bonds.iter().flatten() {
+            bond_in_ring[b] = true;
+        }
+        let ring_bonds = mol
+            .adjacency
+            .iter()
+            .map(|list| list.iter().filter(|&&(_, b)| bond_in_ring[b]).count())
+            .collect();
+        Target {
+            mol,
+            neighbours,
+            ring_count,
+            smallest_ring,
+            ring_bonds,
+            bond_in_ring,
+        }
+    }
+
+    pub fn molecule(&self) -> &'m Molecule {
+        self.mol
+    }
+
+    pub fn atom_count(&self) -> usize {
+        self.mol.atoms.len()
+    }
+
+    /// Number of SSSR rings holding the atom.
+    pub fn ring_count(&self, atom: usize) -> usize {
+        self.ring_count[atom]
+    }
+
+    /// Size of the smallest SSSR ring holding the atom, 0 outside rings.
+    pub fn smallest_ring(&self, atom: usize) -> usize {
+        self.smallest_ring[atom]
+    }
+
+    /// Number of ring bonds at the atom.
+    pub fn ring_bonds(&self, atom: usize) -> usize {
+        self.ring_bonds[atom]
+    }
+
+    pub fn bond_in_ring(&self, bond: usize) -> bool {
+        self.bond_in_ring[bond]
+    }
+
+    /// The bond joining two atoms, if any.
+    pub fn bond_between(&self, a: usize, b: usize) -> Option<usize> {
+        self.neighbours[a]
+            .iter()
+            .find(|&&(n, _)| n == b)
+            .map(|&(_, bond)| bond)
+    }
+
+    /// Whether the bond is a plain (non-aromatic) bond of the given order.
+    pub(crate) fn plain(&self, bond: usize, order: Order) -> bool {
+        let b = &self.mol.bonds[bond];
+        !b.aromatic && b.order == order
+    }
+}
+
+#[cfg(test)]
+pub(crate) mod tests {
+    use super::*;
+    use crate::chem::molecule::{Atom, Bond, Rings};
+
+    /// A hand-built molecule for matcher tests: `(element, aromatic, hydrogens, charge)` per
+    /// atom, `(a, b, order, aromatic)` per bond, rings as atom cycles (ring bonds derived).
+    pub fn molecule(
+        atoms: &[(u8, bool, u8, i8)],
+        bonds: &[(usize, usize, u8, bool)],
+        rings: &[&[usize]],
+    ) -> Molecule {
+        let atoms: Vec<Atom> = atoms
+            .iter()
+            .enumerate()
+            .map(|(i, &(element, aromatic, h, charge))| Atom {
+                element,
+                isotope: None,
+                charge,
+                implicit_hydrogens: h,
+                explicit_hydrogens: 0,
+                aromatic,
+                position: i,
+            })
+            .collect();
+        let bonds: Vec<Bond> = bonds
+            .iter()
+            .map(|&(a, b, order, aromatic)| Bond {
+                a,
+                b,
+                order: match order {
+                    1 => Order::Single,
+                    2 => Order::Double,
+                    3 => Order::Triple,
+                    _ => Order::Quadruple,
+                },
+                aromatic,
+            })
+            .collect();
+        let mut adjacency = vec![Vec::new(); atoms.len()];
+        for (i, b) in bonds.iter().enumerate() {
+            adjacency[b.a].push((b.b, i));
+            adjacency[b.b].push((b.a, i));
+        }
+        let find = |x: usize, y: usize| {
+            bonds
+                .iter()
+                .position(|b| (b.a == x && b.b == y) || (b.a == y && b.b == x))
+                .expect("ring bond exists")
+        };
+        let ring_bonds = rings
+            .iter()
+            .map(|r| {
+                (0..r.len())
+                    .map(|i| find(r[i], r[(i + 1) % r.len()]))
+                    .collect()
+            })
+            .collect();
+        Molecule {
+            atoms,
+            bonds,
+            adjacency,
+            rings: Rings {
+                rings: rings.iter().map(|r| r.to_vec()).collect(),
+                ring_bonds,
+            },
+        }
+    }
+
+    /// Naphthalene, Kekulé orders plus aromatic flags, two SSSR rings sharing atoms 4 and 5.
+    pub fn naphthalene() -> Molecule {
+        let c = (6, true, 1, 0);
+        let f = (6, true, 0, 0);
+        // 0-1-2-3-4(f)-5(f)-0 ring A with 4,5 fused; ring B 4-6-7-8-9-5
+        molecule(
+            &[c, c, c, c, f, f, c, c, c, c],
+            &[
+                (0, 1, 2, true),
+                (1, 2, 1, true),
+                (2, 3, 2, true),
+                (3, 4, 1, true),
+                (4, 5, 2, true),
+                (5, 0, 1, true),
+                (4, 6, 1, true),
+                (6, 7, 2, true),
+                (7, 8, 1, true),
+                (8, 9, 2, true),
+                (9, 5, 1, true),
+            ],
+            &[&[0, 1, 2, 3, 4, 5], &[4, 6, 7, 8, 9, 5]],
+        )
+    }
+
+    #[test]
+    fn ring_facts_agree_with_the_molecule_methods() {
+        let mol = naphthalene();
+        let t = Target::new(&mol);
+        for a in 0..mol.atoms.len() {
+            assert_eq!(t.ring_count(a), mol.ring_count(a));
+            assert_eq!(t.smallest_ring(a), mol.smallest_ring(a).unwrap_or(0));
+            assert_eq!(t.ring_bonds(a), mol.ring_connectivity(a));
+        }
+        for b in 0..mol.bonds.len() {
+            assert_eq!(t.bond_in_ring(b), mol.bond_in_ring(b));
+        }
+        assert_eq!(t.ring_count(4), 2);
+        assert_eq!(t.ring_bonds(4), 3);
+        assert_eq!(t.bond_between(4, 5), Some(4));
+        assert_eq!(t.bond_between(0, 4), None);
+        assert!(t.neighbours[5].windows(2).all(|w| w[0].0 < w[1].0));
+    }
+}

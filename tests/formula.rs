@@ -1,0 +1,44 @@
+//! Formula and molar mass checked against RDKit: tests/reference/formula.csv holds
+//! `rdMolDescriptors.CalcMolFormula` and `Descriptors.MolWt` for each SMILES, written by
+//! tests/reference/make_formula_fixture.py (RDKit's version is in the fixture header).
+
+use phdose::chem::formula::{formula, molar_mass};
+use phdose::chem::molecule::Molecule;
+
+const FIXTURE: &str = include_str!("reference/formula.csv");
+
+#[test]
+fn formula_and_molar_mass_match_rdkit() {
+    let mut reader = csv::ReaderBuilder::new()
+        .comment(Some(b'#'))
+        .from_reader(FIXTURE.as_bytes());
+    let mut rows = 0;
+    let mut wrong = Vec::new();
+    for record in reader.records() {
+        let r = record.unwrap();
+        let (name, smiles, expected) = (&r[0], &r[1], &r[2]);
+        let expected_mass: f64 = r[3].parse().unwrap();
+        let mol = Molecule::from_smiles(smiles)
+            .unwrap_or_else(|e| panic!("{name} ({smiles}) does not parse: {e}"));
+        let found = formula(&mol);
+        if found != expected {
+            wrong.push(format!(
+                "{name} {smiles}: formula RDKit {expected}, phdose {found}"
+            ));
+        }
+        let mass = molar_mass(&mol);
+        if (mass - expected_mass).abs() > 0.001 {
+            wrong.push(format!(
+                "{name} {smiles}: mass RDKit {expected_mass}, phdose {mass}"
+            ));
+        }
+        rows += 1;
+    }
+    assert!(rows >= 40, "fixture has only {rows} rows");
+    assert!(
+        wrong.is_empty(),
+        "{} mismatches:\n{}",
+        wrong.len(),
+        wrong.join("\n")
+    );
+}
