@@ -11,7 +11,7 @@ pub mod equilibrium;
 pub mod error;
 pub mod report;
 pub mod store;
-pub mod workup;
 pub mod units;
+pub mod workup;
 
 pub use error::{Error, ParseError, Result};

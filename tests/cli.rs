@@ -42,7 +42,10 @@ fn invalid_smiles_exits_2_with_a_caret_under_the_bad_character() {
     assert!(err.contains("CC(=O)Xc1ccccc1"), "{err}");
     // The caret line puts `^` under byte 6, the `X`.
     let lines: Vec<&str> = err.lines().collect();
-    let smiles_line = lines.iter().position(|l| l.contains("CC(=O)Xc1ccccc1")).unwrap();
+    let smiles_line = lines
+        .iter()
+        .position(|l| l.contains("CC(=O)Xc1ccccc1"))
+        .unwrap();
     let caret_line = lines[smiles_line + 1];
     let col = lines[smiles_line].find("CC(=O)X").unwrap() + 6;
     assert_eq!(caret_line.find('^'), Some(col), "{err}");
@@ -61,21 +64,32 @@ fn unclosed_ring_and_branch_exit_2() {
 fn info_reports_formula_mass_and_charge() {
     // Triethylamine hydrochloride, C6H16ClN; molar mass 137.67 from IUPAC 2021 weights
     // (6 x 12.011 + 16 x 1.008 + 35.45 + 14.007 = 137.653... RDKit gives 137.67, common practice).
-    let v = json(&phdose("info", &["info", "CCN(CC)CC.Cl", "--format", "json"]));
+    let v = json(&phdose(
+        "info",
+        &["info", "CCN(CC)CC.Cl", "--format", "json"],
+    ));
     assert_eq!(v["formula"], "C6H16ClN");
-    assert!((v["molar_mass"].as_f64().unwrap() - 137.67).abs() < 0.02, "{v}");
+    assert!(
+        (v["molar_mass"].as_f64().unwrap() - 137.67).abs() < 0.02,
+        "{v}"
+    );
     assert_eq!(v["charge"], 0);
 }
 
 #[test]
 fn pka_json_has_the_contract_keys_in_input_order() {
-    let v = json(&phdose("pka-json", &["pka", "CC(=O)O", "CCN", "--format", "json"]));
+    let v = json(&phdose(
+        "pka-json",
+        &["pka", "CC(=O)O", "CCN", "--format", "json"],
+    ));
     let arr = v.as_array().unwrap();
     assert_eq!(arr.len(), 2);
     assert_eq!(arr[0]["smiles"], "CC(=O)O");
     assert_eq!(arr[1]["smiles"], "CCN");
     let site = &arr[0]["sites"][0];
-    for key in ["atom", "group", "kind", "pka", "pka_low", "pka_high", "source"] {
+    for key in [
+        "atom", "group", "kind", "pka", "pka_low", "pka_high", "source",
+    ] {
         assert!(site.get(key).is_some(), "missing {key}: {site}");
     }
     assert_eq!(site["kind"], "acid");
@@ -89,9 +103,21 @@ fn batch_jsonl_keeps_order_and_reports_bad_rows() {
     let dir = temp_db("batch").parent().unwrap().to_path_buf();
     let input = dir.join("in.csv");
     std::fs::write(&input, "id,smiles\n1,OC(=O)c1ccccc1\n2,C1CC\n3,c1ccncc1\n").unwrap();
-    let o = phdose("batch", &["pka", "--input", input.to_str().unwrap(), "--format", "jsonl"]);
+    let o = phdose(
+        "batch",
+        &[
+            "pka",
+            "--input",
+            input.to_str().unwrap(),
+            "--format",
+            "jsonl",
+        ],
+    );
     assert!(o.status.success(), "{}", stderr(&o));
-    let lines: Vec<Value> = stdout(&o).lines().map(|l| serde_json::from_str(l).unwrap()).collect();
+    let lines: Vec<Value> = stdout(&o)
+        .lines()
+        .map(|l| serde_json::from_str(l).unwrap())
+        .collect();
     assert_eq!(lines.len(), 3);
     assert_eq!(lines[0]["smiles"], "OC(=O)c1ccccc1");
     assert!(lines[0]["error"].is_null());
@@ -104,7 +130,22 @@ fn adjust_done_when_example_prints_sites_ph_and_amount() {
     // The acceptance command: 3 mmol 4-chlorobenzoic acid in 40 mL to pH 8 with 1 M NaOH.
     let o = phdose(
         "done-when",
-        &["adjust", "--solute", "OC(=O)c1ccc(Cl)cc1", "3mmol", "--water", "40mL", "--to-ph", "8", "--reagent", "naoh", "--stock", "1M", "--format", "json"],
+        &[
+            "adjust",
+            "--solute",
+            "OC(=O)c1ccc(Cl)cc1",
+            "3mmol",
+            "--water",
+            "40mL",
+            "--to-ph",
+            "8",
+            "--reagent",
+            "naoh",
+            "--stock",
+            "1M",
+            "--format",
+            "json",
+        ],
     );
     let v = json(&o);
     assert!((v["ph"].as_f64().unwrap() - 8.0).abs() < 1e-6);
@@ -130,7 +171,22 @@ fn amine_hydrochloride_to_ph_12_needs_one_equivalent_plus_free_hydroxide() {
     // n(NaOH) = n(Cl-) - n(BH+) + (OH- - H+) V with BH+ = n / (1 + 10^(12 - pKa)).
     let o = phdose(
         "hcl-salt",
-        &["adjust", "--solute", "CCN(CC)CC.Cl", "1mmol", "--water", "50mL", "--to-ph", "12", "--reagent", "naoh", "--stock", "solid", "--format", "json"],
+        &[
+            "adjust",
+            "--solute",
+            "CCN(CC)CC.Cl",
+            "1mmol",
+            "--water",
+            "50mL",
+            "--to-ph",
+            "12",
+            "--reagent",
+            "naoh",
+            "--stock",
+            "solid",
+            "--format",
+            "json",
+        ],
     );
     let v = json(&o);
     let pka = v["solutes"][0]["sites"][0]["pka"].as_f64().unwrap();
@@ -140,7 +196,10 @@ fn amine_hydrochloride_to_ph_12_needs_one_equivalent_plus_free_hydroxide() {
     let bh = n / (1.0 + 10f64.powf(12.0 - pka));
     let expected = n - bh + (kw / 1e-12 - 1e-12) * v_l;
     let got = v["reagent_mol"].as_f64().unwrap();
-    assert!(((got - expected) / expected).abs() < 1e-6, "got {got}, expected {expected}");
+    assert!(
+        ((got - expected) / expected).abs() < 1e-6,
+        "got {got}, expected {expected}"
+    );
     assert!(v["reagent_mass_g"].as_f64().unwrap() > 0.0);
 }
 
@@ -148,27 +207,148 @@ fn amine_hydrochloride_to_ph_12_needs_one_equivalent_plus_free_hydroxide() {
 fn several_targets_give_an_array_in_order() {
     let v = json(&phdose(
         "multi",
-        &["adjust", "--solute", "CC(=O)O 2mmol", "--water", "50mL", "--to-ph", "4,7,10", "--reagent", "naoh", "--format", "json"],
+        &[
+            "adjust",
+            "--solute",
+            "CC(=O)O 2mmol",
+            "--water",
+            "50mL",
+            "--to-ph",
+            "4,7,10",
+            "--reagent",
+            "naoh",
+            "--format",
+            "json",
+        ],
     ));
     let arr = v.as_array().unwrap();
     assert_eq!(arr.len(), 3);
-    let amounts: Vec<f64> = arr.iter().map(|r| r["reagent_mol"].as_f64().unwrap()).collect();
-    assert!(amounts[0] < amounts[1] && amounts[1] < amounts[2], "{amounts:?}");
+    let amounts: Vec<f64> = arr
+        .iter()
+        .map(|r| r["reagent_mol"].as_f64().unwrap())
+        .collect();
+    assert!(
+        amounts[0] < amounts[1] && amounts[1] < amounts[2],
+        "{amounts:?}"
+    );
 }
 
 #[test]
 fn bad_amounts_volumes_ph_and_reagents_exit_2() {
-    let base = ["adjust", "--solute", "CCN", "1mmol", "--water", "50mL", "--to-ph", "3", "--reagent", "hcl"];
+    let base = [
+        "adjust",
+        "--solute",
+        "CCN",
+        "1mmol",
+        "--water",
+        "50mL",
+        "--to-ph",
+        "3",
+        "--reagent",
+        "hcl",
+    ];
     let cases: Vec<(Vec<&str>, &str)> = vec![
-        (vec!["adjust", "--solute", "CCN", "1mmoll", "--water", "50mL", "--to-ph", "3", "--reagent", "hcl"], "amount"),
-        (vec!["adjust", "--solute", "CCN", "1mmol", "--water", "50 gallons", "--to-ph", "3", "--reagent", "hcl"], "volume"),
-        (vec!["adjust", "--solute", "CCN", "1mmol", "--water", "50mL", "--to-ph", "21", "--reagent", "hcl"], "pH"),
-        (vec!["adjust", "--solute", "CCN", "1mmol", "--water", "50mL", "--to-ph", "3", "--reagent", "vinegar"], "vinegar"),
-        (vec!["adjust", "--solute", "CCN", "1mmol", "--water", "50mL", "--to-ph", "3", "--reagent", "hcl", "--stock", "3.7M"], "offered"),
-        (vec!["adjust", "--solute", "C1CCN", "1mmol", "--water", "50mL", "--to-ph", "3", "--reagent", "hcl"], "SMILES"),
-        ([&base[..], &["--organic", "40mL", "--solvent", "toluene"]].concat(), "not supported yet"),
+        (
+            vec![
+                "adjust",
+                "--solute",
+                "CCN",
+                "1mmoll",
+                "--water",
+                "50mL",
+                "--to-ph",
+                "3",
+                "--reagent",
+                "hcl",
+            ],
+            "amount",
+        ),
+        (
+            vec![
+                "adjust",
+                "--solute",
+                "CCN",
+                "1mmol",
+                "--water",
+                "50 gallons",
+                "--to-ph",
+                "3",
+                "--reagent",
+                "hcl",
+            ],
+            "volume",
+        ),
+        (
+            vec![
+                "adjust",
+                "--solute",
+                "CCN",
+                "1mmol",
+                "--water",
+                "50mL",
+                "--to-ph",
+                "21",
+                "--reagent",
+                "hcl",
+            ],
+            "pH",
+        ),
+        (
+            vec![
+                "adjust",
+                "--solute",
+                "CCN",
+                "1mmol",
+                "--water",
+                "50mL",
+                "--to-ph",
+                "3",
+                "--reagent",
+                "vinegar",
+            ],
+            "vinegar",
+        ),
+        (
+            vec![
+                "adjust",
+                "--solute",
+                "CCN",
+                "1mmol",
+                "--water",
+                "50mL",
+                "--to-ph",
+                "3",
+                "--reagent",
+                "hcl",
+                "--stock",
+                "3.7M",
+            ],
+            "offered",
+        ),
+        (
+            vec![
+                "adjust",
+                "--solute",
+                "C1CCN",
+                "1mmol",
+                "--water",
+                "50mL",
+                "--to-ph",
+                "3",
+                "--reagent",
+                "hcl",
+            ],
+            "SMILES",
+        ),
+        (
+            [&base[..], &["--organic", "40mL", "--solvent", "toluene"]].concat(),
+            "not supported yet",
+        ),
         ([&base[..], &["--temp", "40"]].concat(), "not supported yet"),
-        ([&base[..], &["--co2", "vented"]].concat(), "not supported yet"),
+        (
+            [&base[..], &["--co2", "vented"]].concat(),
+            "not supported yet",
+        ),
         ([&base[..], &["--pka", "CCN", "9.1,3.3"]].concat(), "site"),
     ];
     for (args, needle) in cases {
@@ -184,7 +364,20 @@ fn unreachable_target_exits_3_with_the_range_and_an_alternative() {
     // Saturated NaHCO3 cannot lift a layer much above pH 8.3 (common practice).
     let o = phdose(
         "unreachable",
-        &["adjust", "--solute", "CC(=O)O", "1mmol", "--water", "50mL", "--to-ph", "11", "--reagent", "nahco3", "--stock", "sat"],
+        &[
+            "adjust",
+            "--solute",
+            "CC(=O)O",
+            "1mmol",
+            "--water",
+            "50mL",
+            "--to-ph",
+            "11",
+            "--reagent",
+            "nahco3",
+            "--stock",
+            "sat",
+        ],
     );
     assert_eq!(o.status.code(), Some(3), "{}", stderr(&o));
     let err = stderr(&o);
@@ -196,7 +389,23 @@ fn unreachable_target_exits_3_with_the_range_and_an_alternative() {
 fn pka_override_replaces_the_estimate() {
     let v = json(&phdose(
         "override",
-        &["adjust", "--solute", "CCN", "1mmol", "--water", "50mL", "--to-ph", "7", "--reagent", "hcl", "--pka", "CCN", "10.0", "--format", "json"],
+        &[
+            "adjust",
+            "--solute",
+            "CCN",
+            "1mmol",
+            "--water",
+            "50mL",
+            "--to-ph",
+            "7",
+            "--reagent",
+            "hcl",
+            "--pka",
+            "CCN",
+            "10.0",
+            "--format",
+            "json",
+        ],
     ));
     let site = &v["solutes"][0]["sites"][0];
     assert_eq!(site["pka"], 10.0);

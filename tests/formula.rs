@@ -7,6 +7,34 @@ use phdose::chem::molecule::Molecule;
 
 const FIXTURE: &str = include_str!("reference/formula.csv");
 
+/// RDKit prints carbon-free formulas with hydrogen first (`HBr`); the Hill system, which
+/// phdose follows, orders them alphabetically (`BrH`). Formulas with carbon are left alone.
+fn rdkit_to_hill(formula: &str) -> String {
+    let (body, charge) = match formula.find(['+', '-']) {
+        Some(i) => formula.split_at(i),
+        None => (formula, ""),
+    };
+    let mut parts: Vec<(String, String)> = Vec::new();
+    for c in body.chars() {
+        if c.is_ascii_uppercase() || c == '*' {
+            parts.push((c.to_string(), String::new()));
+        } else if c.is_ascii_lowercase() {
+            parts.last_mut().unwrap().0.push(c);
+        } else {
+            parts.last_mut().unwrap().1.push(c);
+        }
+    }
+    if parts.iter().any(|(e, _)| e == "C") {
+        return formula.to_string();
+    }
+    parts.sort();
+    parts
+        .iter()
+        .map(|(e, n)| format!("{e}{n}"))
+        .collect::<String>()
+        + charge
+}
+
 #[test]
 fn formula_and_molar_mass_match_rdkit() {
     let mut reader = csv::ReaderBuilder::new()
@@ -21,7 +49,8 @@ fn formula_and_molar_mass_match_rdkit() {
         let mol = Molecule::from_smiles(smiles)
             .unwrap_or_else(|e| panic!("{name} ({smiles}) does not parse: {e}"));
         let found = formula(&mol);
-        if found != expected {
+        let expected = &rdkit_to_hill(expected);
+        if found != *expected {
             wrong.push(format!(
                 "{name} {smiles}: formula RDKit {expected}, phdose {found}"
             ));

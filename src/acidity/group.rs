@@ -68,8 +68,22 @@ impl Group {
         let (pka, pka_low, pka_high) = match (kind, pka, low, high) {
             (None, ..) => (f64::NAN, f64::NAN, f64::NAN),
             (Some(_), Some(p), Some(l), Some(h)) if l <= p && p <= h => (p, l, h),
-            _ => return Err(bad("an acid or base row needs pka_low <= pka <= pka_high".into())),
+            _ => {
+                return Err(bad(
+                    "an acid or base row needs pka_low <= pka <= pka_high".into()
+                ));
+            }
         };
-        Ok(Group { name: name.clone(), smarts: smarts.to_string(), pattern, site, kind, pka, pka_low, pka_high, source })
+        Ok(Group {
+            name: name.clone(),
+            smarts: smarts.to_string(),
+            pattern,
+            site,
+            kind,
+            pka,
+            pka_low,
+            pka_high,
+            source,
+        })
     }
 }

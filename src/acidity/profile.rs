@@ -28,13 +28,21 @@ impl Profile {
             .into_iter()
             .filter(|s| compound.parents.iter().any(|p| p.atoms.contains(&s.atom)))
             .collect();
-        Ok(Profile { smiles: smiles.to_string(), molecule, compound, sites })
+        Ok(Profile {
+            smiles: smiles.to_string(),
+            molecule,
+            compound,
+            sites,
+        })
     }
 
     /// The sites that belong to parent `i`.
     pub fn parent_sites(&self, i: usize) -> Vec<&Site> {
         let atoms = &self.compound.parents[i].atoms;
-        self.sites.iter().filter(|s| atoms.contains(&s.atom)).collect()
+        self.sites
+            .iter()
+            .filter(|s| atoms.contains(&s.atom))
+            .collect()
     }
 
     /// Replaces the pKa of every site, in atom order, with user-given values (`--pka`).
@@ -43,7 +51,15 @@ impl Profile {
             let found: Vec<String> = self
                 .sites
                 .iter()
-                .map(|s| format!("atom {} {} ({}, pKa {:.2})", s.atom, s.group, s.kind.as_str(), s.pka))
+                .map(|s| {
+                    format!(
+                        "atom {} {} ({}, pKa {:.2})",
+                        s.atom,
+                        s.group,
+                        s.kind.as_str(),
+                        s.pka
+                    )
+                })
                 .collect();
             return Err(crate::Error::Input(format!(
                 "--pka for {} gives {} value(s) but phdose finds {} site(s){}{}",

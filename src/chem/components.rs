@@ -77,14 +77,21 @@ pub fn split(mol: &Molecule) -> Result<Compound> {
         if let Some(row) = table.iter().find(|r| r.formula == formula) {
             cations += row.cations;
             anions += row.anions;
-            counterions.push(Counterion { name: row.name.clone(), cations: row.cations, anions: row.anions });
+            counterions.push(Counterion {
+                name: row.name.clone(),
+                cations: row.cations,
+                anions: row.anions,
+            });
             continue;
         }
         for &a in &atoms {
             neutralize_atom(&mut neutral, a);
         }
         let permanent_charge = atoms.iter().map(|&a| neutral.atoms[a].charge as i32).sum();
-        parents.push(Parent { atoms, permanent_charge });
+        parents.push(Parent {
+            atoms,
+            permanent_charge,
+        });
     }
     // Strong ions, permanent charges and the written charge must balance; a written charge
     // left over means the user gave one ion of a salt, so its partner is supplied.
@@ -110,8 +117,12 @@ pub fn split(mol: &Molecule) -> Result<Compound> {
 /// Turns a protonated or deprotonated atom back into its neutral form, in place.
 fn neutralize_atom(mol: &mut Molecule, a: usize) {
     let atom = &mol.atoms[a];
-    let next_to_cation = mol.adjacency[a].iter().any(|&(n, _)| mol.atoms[n].charge > 0);
-    let next_to_anion = mol.adjacency[a].iter().any(|&(n, _)| mol.atoms[n].charge < 0);
+    let next_to_cation = mol.adjacency[a]
+        .iter()
+        .any(|&(n, _)| mol.atoms[n].charge > 0);
+    let next_to_anion = mol.adjacency[a]
+        .iter()
+        .any(|&(n, _)| mol.atoms[n].charge < 0);
     match (atom.element, atom.charge) {
         // N+ or P+ carrying a proton (ammonium, pyridinium, iminium): give the proton back.
         (7 | 15, 1) if atom.hydrogens() > 0 && !next_to_anion => {

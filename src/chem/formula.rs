@@ -1,10 +1,10 @@
 //! Molecular formula (Hill order) and molar mass.
 //!
-//! The formula is written the way RDKit's `CalcMolFormula` prints it: carbon first, hydrogen
-//! next, the rest alphabetical, and the net charge as a suffix (`C2H8N+`, `O4S-2`). With
-//! carbon this is the Hill system; without carbon RDKit still puts hydrogen first (`HBr`,
-//! `H3BO3`) where strict Hill order would give `BrH`, and phdose follows RDKit so that the two
-//! agree. Isotope labels count as their element.
+//! The formula follows the Hill system: carbon first, hydrogen next, the rest alphabetical;
+//! without carbon every element alphabetically, hydrogen included (`BrH`, `BH3O3`), and the net
+//! charge as a suffix (`C2H8N+`, `O4S-2`). RDKit's `CalcMolFormula` agrees with carbon and puts
+//! hydrogen first without it (`HBr`); the tests allow for exactly that difference. Isotope
+//! labels count as their element.
 //! The molar mass sums standard atomic weights (`data/elements.csv`); a labelled atom such as
 //! `[2H]` or `[13C]` weighs its isotope's mass (`data/isotopes.csv`), and an unlisted label falls
 //! back to the standard weight.
@@ -15,48 +15,59 @@ use std::collections::BTreeMap;
 
 /// Hydrogen's atomic number, also used for implicit and bracket hydrogens.
 const HYDROGEN: u8 = 1;
-const CARBON: u8 = 6;
 
-/// The molecular formula of the whole molecule (all components), e.g. `C2H3NaO2`.
+/// The molecular formula of the whole molecule (all components) in Hill order with the net
+/// charge as a suffix, e.g. `C2H3NaO2`, `C2H8N+`, `O4S-2`.
 pub fn formula(mol: &Molecule) -> String {
+    let all: Vec<usize> = (0..mol.atoms.len()).collect();
+    let mut text = hill_formula_of(mol, &all);
+    match mol.charge() {
+        0 => {}
+        1 => text.push('+'),
+        -1 => text.push('-'),
+        q if q > 0 => text.push_str(&format!("+{q}")),
+        q => text.push_str(&format!("-{}", -q)),
+    }
+    text
+}
+
+/// The Hill formula of some atoms of `mol` (one component, say), without charge: carbon
+/// first and hydrogen next when carbon is present, otherwise every element alphabetically
+/// (hydrochloric acid is `ClH`).
+pub fn hill_formula_of(mol: &Molecule, atoms: &[usize]) -> String {
     let mut counts: BTreeMap<String, usize> = BTreeMap::new();
     let mut dummies = 0;
-    let mut hydrogens = 0;
-    let mut carbons = 0;
-    for atom in &mol.atoms {
-        hydrogens += atom.hydrogens() as usize;
+    for &a in atoms {
+        let atom = &mol.atoms[a];
+        *counts.entry("H".to_string()).or_default() += atom.hydrogens() as usize;
         match atom.element {
             0 => dummies += 1,
-            HYDROGEN => hydrogens += 1,
-            CARBON => carbons += 1,
             z => {
                 let symbol = elements::by_number(z).map_or("?", |e| e.symbol.as_str());
                 *counts.entry(symbol.to_string()).or_default() += 1;
             }
         }
     }
+    counts.retain(|_, n| *n > 0);
     let mut text = String::new();
     let mut push = |symbol: &str, n: usize| {
-        if n > 0 {
-            text.push_str(symbol);
-            if n > 1 {
-                text.push_str(&n.to_string());
-            }
+        text.push_str(symbol);
+        if n > 1 {
+            text.push_str(&n.to_string());
         }
     };
-    push("C", carbons);
-    push("H", hydrogens);
+    let carbon = counts.remove("C");
+    if let Some(c) = carbon {
+        push("C", c);
+        if let Some(h) = counts.remove("H") {
+            push("H", h);
+        }
+    }
     for (symbol, n) in &counts {
         push(symbol, *n);
     }
-    push("*", dummies);
-    let charge = mol.charge();
-    match charge {
-        0 => {}
-        1 => text.push('+'),
-        -1 => text.push('-'),
-        q if q > 0 => text.push_str(&format!("+{q}")),
-        q => text.push_str(&format!("-{}", -q)),
+    if dummies > 0 {
+        push("*", dummies);
     }
     text
 }
@@ -86,7 +97,8 @@ mod tests {
         assert_eq!(f("CCO"), "C2H6O");
         assert_eq!(f("O"), "H2O");
         assert_eq!(f("OS(=O)(=O)O"), "H2O4S");
-        assert_eq!(f("Br"), "HBr"); // no carbon: H still first, as RDKit prints it
+        assert_eq!(f("Br"), "BrH"); // no carbon: strictly alphabetical (RDKit prints HBr)
+        assert_eq!(f("OB(O)O"), "BH3O3");
         assert_eq!(f("ClCCl"), "CH2Cl2");
         assert_eq!(f("[Na+].[Cl-]"), "ClNa");
     }

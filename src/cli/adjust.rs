@@ -14,8 +14,8 @@ use crate::workup::adjust::{Adjustment, Request, SoluteInput, adjust};
 pub struct Args {
     /// A dissolved compound and its amount (`2.5mmol`, `0.30g`, `150mg`, `0.1M`); repeat for
     /// each. Two values, or one quoted value with a space between them.
-    #[arg(long, num_args = 1..=2, value_names = ["SMILES", "AMOUNT"], required = true, allow_hyphen_values = true)]
-    pub solute: Vec<Vec<String>>,
+    #[arg(long, num_args = 1..=2, value_names = ["SMILES", "AMOUNT"], required = true, action = clap::ArgAction::Append)]
+    pub solute: Vec<String>,
     /// Volume of the aqueous layer before any reagent (`50mL`).
     #[arg(long, value_name = "VOLUME")]
     pub water: String,
@@ -44,28 +44,38 @@ pub struct Args {
     #[arg(long, value_name = "NAME")]
     pub solvent: Option<String>,
     /// Replace a compound's pKa values (its sites in atom order): `--pka SMILES 4.2,9.8`.
-    #[arg(long, num_args = 2, value_names = ["SMILES", "VALUES"], allow_hyphen_values = true)]
-    pub pka: Vec<Vec<String>>,
+    #[arg(long, num_args = 2, value_names = ["SMILES", "VALUES"], action = clap::ArgAction::Append)]
+    pub pka: Vec<String>,
     /// Ignore stored measured values and use the group estimates.
     #[arg(long)]
     pub estimate_only: bool,
 }
 
-/// Splits `--solute` values into SMILES and amount text.
-fn solute_pair(values: &[String]) -> Result<(String, String)> {
-    match values {
-        [smiles, amount] => Ok((smiles.clone(), amount.clone())),
-        [one] => {
-            let mut parts = one.split_whitespace();
-            match (parts.next(), parts.next(), parts.next()) {
-                (Some(s), Some(a), None) => Ok((s.to_string(), a.to_string())),
-                _ => Err(Error::Input(format!(
-                    "--solute needs a SMILES and an amount (`--solute 'CCO' 2mmol`), got '{one}'"
-                ))),
+/// Regroups the `--solute` values into (SMILES, amount) pairs. clap hands them over flat; a
+/// value with a space is a whole pair, otherwise a SMILES is followed by its amount.
+fn solute_pairs(values: &[String]) -> Result<Vec<(String, String)>> {
+    let mut pairs = Vec::new();
+    let mut rest = values.iter();
+    while let Some(first) = rest.next() {
+        let mut words = first.split_whitespace();
+        match (words.next(), words.next(), words.next()) {
+            (Some(s), Some(a), None) => pairs.push((s.to_string(), a.to_string())),
+            (Some(s), None, None) => match rest.next() {
+                Some(amount) => pairs.push((s.to_string(), amount.clone())),
+                None => {
+                    return Err(Error::Input(format!(
+                        "--solute {s} needs an amount (`--solute '{s}' 2mmol`)"
+                    )));
+                }
+            },
+            _ => {
+                return Err(Error::Input(format!(
+                    "--solute needs a SMILES and an amount (`--solute 'CCO' 2mmol`), got '{first}'"
+                )));
             }
         }
-        _ => Err(Error::Input("--solute takes a SMILES and an amount".into())),
     }
+    Ok(pairs)
 }
 
 fn parse_pka_values(text: &str) -> Result<Vec<f64>> {
@@ -73,10 +83,21 @@ fn parse_pka_values(text: &str) -> Result<Vec<f64>> {
     let mut offset = 0;
     for part in text.split(',') {
         let value: f64 = part.trim().parse().map_err(|_| {
-            ParseError::new("pKa list", text, offset, format!("'{}' is not a number", part.trim()))
+            ParseError::new(
+                "pKa list",
+                text,
+                offset,
+                format!("'{}' is not a number", part.trim()),
+            )
         })?;
         if !(-5.0..=20.0).contains(&value) {
-            return Err(ParseError::new("pKa list", text, offset, "a pKa must lie between -5 and 20").into());
+            return Err(ParseError::new(
+                "pKa list",
+                text,
+                offset,
+                "a pKa must lie between -5 and 20",
+            )
+            .into());
         }
         out.push(value);
         offset += part.len() + 1;
@@ -87,30 +108,48 @@ fn parse_pka_values(text: &str) -> Result<Vec<f64>> {
 /// Turns the flags into a request, refusing what is not computed yet.
 pub fn request(args: &Args) -> Result<Request> {
     if args.organic.is_some() || args.solvent.is_some() {
-        return Err(Error::Input("--organic and --solvent are not supported yet (one aqueous layer only)".into()));
+        return Err(Error::Input(
+            "--organic and --solvent are not supported yet (one aqueous layer only)".into(),
+        ));
     }
     match args.co2.as_deref() {
         None | Some("closed") => {}
         Some(mode @ ("vented" | "air")) => {
-            return Err(Error::Input(format!("--co2 {mode} is not supported yet; use --co2 closed")));
+            return Err(Error::Input(format!(
+                "--co2 {mode} is not supported yet; use --co2 closed"
+            )));
         }
-        Some(other) => return Err(Error::Input(format!("--co2 '{other}': use closed, vented or air"))),
+        Some(other) => {
+            return Err(Error::Input(format!(
+                "--co2 '{other}': use closed, vented or air"
+            )));
+        }
     }
     let temperature = units::parse_temperature(&args.temp)?;
     let conditions = Conditions::new(temperature)?;
     let water_l = units::parse_volume(&args.water)?.litres;
     let targets = units::parse_ph_list(&args.to_ph)?;
     let mut solutes = Vec::new();
-    for values in &args.solute {
-        let (smiles, amount_text) = solute_pair(values)?;
+    for (smiles, amount_text) in solute_pairs(&args.solute)? {
         let amount = units::parse_amount(&amount_text)?;
-        solutes.push(SoluteInput { smiles, amount, pka_override: None });
+        solutes.push(SoluteInput {
+            smiles,
+            amount,
+            pka_override: None,
+        });
     }
-    for pair in &args.pka {
-        let (smiles, values) = (&pair[0], &pair[1]);
-        let target = solutes.iter_mut().find(|s| &s.smiles == smiles).ok_or_else(|| {
-            Error::Input(format!("--pka names {smiles}, which is not one of the --solute SMILES"))
-        })?;
+    for pair in args.pka.chunks(2) {
+        let [smiles, values] = pair else {
+            return Err(Error::Input("--pka takes a SMILES and its values".into()));
+        };
+        let target = solutes
+            .iter_mut()
+            .find(|s| &s.smiles == smiles)
+            .ok_or_else(|| {
+                Error::Input(format!(
+                    "--pka names {smiles}, which is not one of the --solute SMILES"
+                ))
+            })?;
         target.pka_override = Some(parse_pka_values(values)?);
     }
     Ok(Request {
@@ -186,7 +225,11 @@ fn table(results: &[Adjustment]) -> String {
                 ph: fmt_ph(a.ph),
                 smiles: s.smiles.clone(),
                 amount: fmt_moles(s.amount_mol),
-                sites: if sites.is_empty() { "none".into() } else { sites },
+                sites: if sites.is_empty() {
+                    "none".into()
+                } else {
+                    sites
+                },
                 neutral: format!("{:.1}", 100.0 * s.fraction_neutral),
                 charge: format!("{:+.2}", s.mean_charge),
             });

@@ -35,11 +35,22 @@ struct Demo {
     washes: Vec<Wash>,
 }
 
-fn wash(solutes: &[(&str, f64)], target: f64, reagent: &str, stock: &str, groups: &[Group], catalogue: &[Reagent]) -> Result<Adjustment> {
+fn wash(
+    solutes: &[(&str, f64)],
+    target: f64,
+    reagent: &str,
+    stock: &str,
+    groups: &[Group],
+    catalogue: &[Reagent],
+) -> Result<Adjustment> {
     let request = Request {
         solutes: solutes
             .iter()
-            .map(|&(s, mmol)| SoluteInput { smiles: s.into(), amount: Amount::Moles(mmol * 1e-3), pka_override: None })
+            .map(|&(s, mmol)| SoluteInput {
+                smiles: s.into(),
+                amount: Amount::Moles(mmol * 1e-3),
+                pka_override: None,
+            })
             .collect(),
         water_l: 0.030,
         targets: vec![target],
@@ -59,11 +70,18 @@ fn scenario(groups: &[Group]) -> Result<Demo> {
     let washes = vec![
         Wash {
             purpose: "acid wash: protonate the leftover amine and the catalyst so they stay in water",
-            result: wash(&[(AMINE, 0.50), (CATALYST, 0.20)], 2.0, "hcl", "1M", groups, &catalogue)?,
+            result: wash(
+                &[(AMINE, 0.50), (CATALYST, 0.20)],
+                2.0,
+                "hcl",
+                "1M",
+                groups,
+                &catalogue,
+            )?,
         },
         Wash {
             purpose: "basic wash: deprotonate the leftover carboxylic acid so it stays in water",
-            result: wash(&[(ACID, 0.80)], 8.0, "nahco3", "sat", groups, &catalogue)?,
+            result: wash(&[(ACID, 0.80)], 9.0, "naoh", "1M", groups, &catalogue)?,
         },
     ];
     Ok(Demo {
@@ -77,13 +95,28 @@ fn scenario(groups: &[Group]) -> Result<Demo> {
 }
 
 fn text(demo: &Demo) -> String {
-    let mut out = format!("Scenario: {}\n\nSites (pKa of the conjugate acid):\n", demo.scenario);
+    let mut out = format!(
+        "Scenario: {}\n\nSites (pKa of the conjugate acid):\n",
+        demo.scenario
+    );
     for c in &demo.compounds {
         if c.sites.is_empty() {
-            out += &format!("  {:<32} no site that titrates in water: stays neutral, stays organic\n", c.smiles);
+            out += &format!(
+                "  {:<32} no site that titrates in water: stays neutral, stays organic\n",
+                c.smiles
+            );
         }
         for s in &c.sites {
-            out += &format!("  {:<32} atom {:>2}  {:<30} {} pKa {:.1} ({:.1}-{:.1})\n", c.smiles, s.atom, s.group, s.kind.as_str(), s.pka, s.pka_low, s.pka_high);
+            out += &format!(
+                "  {:<32} atom {:>2}  {:<30} {} pKa {:.1} ({:.1}-{:.1})\n",
+                c.smiles,
+                s.atom,
+                s.group,
+                s.kind.as_str(),
+                s.pka,
+                s.pka_low,
+                s.pka_high
+            );
         }
     }
     for (i, w) in demo.washes.iter().enumerate() {
@@ -103,7 +136,11 @@ fn text(demo: &Demo) -> String {
             fmt_volume(r.aqueous_volume_ml / 1e3)
         );
         for s in &r.solutes {
-            out += &format!("  {:<32} {:>5.1} % ionized\n", s.smiles, 100.0 * (1.0 - s.fraction_neutral));
+            out += &format!(
+                "  {:<32} {:>5.1} % ionized\n",
+                s.smiles,
+                100.0 * (1.0 - s.fraction_neutral)
+            );
         }
         out += "  Cautions:\n";
         for c in &r.cautions {

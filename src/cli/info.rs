@@ -62,8 +62,13 @@ pub fn describe(smiles: &str) -> Result<Info> {
         .components()
         .into_iter()
         .map(|atoms| Component {
-            role: if compound.parents.iter().any(|p| p.atoms == atoms) { "parent" } else { "counter-ion" },
-            formula: hill_formula_of(&mol, &atoms),
+            role: if compound.parents.iter().any(|p| p.atoms == atoms) {
+                "parent"
+            } else {
+                "counter-ion"
+            },
+            // A parent is named by its neutral form (acetate -> acetic acid, C2H4O2).
+            formula: hill_formula_of(&compound.neutral, &atoms),
         })
         .collect();
     Ok(Info {
@@ -83,7 +88,9 @@ pub fn run(args: &Args, cli: &Cli) -> Result<String> {
         list.extend(input::read_smiles_file(path)?);
     }
     if list.is_empty() {
-        return Err(Error::Input("give at least one SMILES, or --input FILE".into()));
+        return Err(Error::Input(
+            "give at least one SMILES, or --input FILE".into(),
+        ));
     }
     let mut infos = Vec::with_capacity(list.len());
     for smiles in &list {
@@ -110,7 +117,12 @@ pub fn run(args: &Args, cli: &Cli) -> Result<String> {
             charge: i.charge.map(|c| c.to_string()).unwrap_or_default(),
             components: match &i.error {
                 Some(e) => format!("error: {}", e.lines().next().unwrap_or("")),
-                None => i.components.iter().map(|c| format!("{} ({})", c.formula, c.role)).collect::<Vec<_>>().join(", "),
+                None => i
+                    .components
+                    .iter()
+                    .map(|c| format!("{} ({})", c.formula, c.role))
+                    .collect::<Vec<_>>()
+                    .join(", "),
             },
         })
         .collect();

@@ -20,7 +20,9 @@ pub fn read_smiles_file(path: &Path) -> Result<Vec<String>> {
 
 fn parse_smiles_list(text: &str, path: &Path) -> Result<Vec<String>> {
     let first = text.lines().next().unwrap_or("");
-    let is_csv = first.split(',').any(|h| h.trim().eq_ignore_ascii_case("smiles"));
+    let is_csv = first
+        .split(',')
+        .any(|h| h.trim().eq_ignore_ascii_case("smiles"));
     if !is_csv {
         return Ok(text
             .lines()
@@ -29,7 +31,9 @@ fn parse_smiles_list(text: &str, path: &Path) -> Result<Vec<String>> {
             .map(String::from)
             .collect());
     }
-    let mut reader = csv::ReaderBuilder::new().flexible(true).from_reader(text.as_bytes());
+    let mut reader = csv::ReaderBuilder::new()
+        .flexible(true)
+        .from_reader(text.as_bytes());
     let headers = reader
         .headers()
         .map_err(|e| Error::Input(format!("{}: {e}", path.display())))?
@@ -40,7 +44,8 @@ fn parse_smiles_list(text: &str, path: &Path) -> Result<Vec<String>> {
         .ok_or_else(|| Error::Input(format!("{}: no `smiles` column", path.display())))?;
     let mut out = Vec::new();
     for (i, record) in reader.records().enumerate() {
-        let record = record.map_err(|e| Error::Input(format!("{} row {}: {e}", path.display(), i + 2)))?;
+        let record =
+            record.map_err(|e| Error::Input(format!("{} row {}: {e}", path.display(), i + 2)))?;
         out.push(record.get(column).unwrap_or("").trim().to_string());
     }
     Ok(out)
@@ -52,7 +57,8 @@ mod tests {
 
     #[test]
     fn csv_with_a_smiles_column() {
-        let list = parse_smiles_list("id,SMILES,kind\n1,CCO,acid\n2,CCN,base\n", Path::new("x")).unwrap();
+        let list =
+            parse_smiles_list("id,SMILES,kind\n1,CCO,acid\n2,CCN,base\n", Path::new("x")).unwrap();
         assert_eq!(list, vec!["CCO", "CCN"]);
     }
 

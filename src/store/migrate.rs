@@ -73,8 +73,11 @@ mod tests {
     fn a_store_from_a_newer_program_is_refused() {
         let mut conn = Connection::open_in_memory().unwrap();
         migrate(&mut conn).unwrap();
-        conn.execute("INSERT INTO schema_migrations (version, name) VALUES (999, 'future')", [])
-            .unwrap();
+        conn.execute(
+            "INSERT INTO schema_migrations (version, name) VALUES (999, 'future')",
+            [],
+        )
+        .unwrap();
         assert!(matches!(migrate(&mut conn), Err(Error::Store(_))));
     }
 }

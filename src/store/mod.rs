@@ -69,7 +69,8 @@ impl Store {
                 path.display()
             ))
         };
-        conn.busy_timeout(std::time::Duration::from_secs(5)).map_err(foreign)?;
+        conn.busy_timeout(std::time::Duration::from_secs(5))
+            .map_err(foreign)?;
         // Reading the schema fails on a file that is not SQLite at all; checking the tables
         // catches a SQLite file of some other program before we write anything into it.
         let tables: Vec<String> = conn
@@ -86,7 +87,10 @@ impl Store {
         }
         migrate::migrate(&mut conn)?;
         builtin::refresh(&mut conn)?;
-        Ok(Store { conn, path: path.to_path_buf() })
+        Ok(Store {
+            conn,
+            path: path.to_path_buf(),
+        })
     }
 
     /// The file this store lives in.
@@ -115,7 +119,9 @@ impl Store {
         let mut groups = Vec::new();
         for row in rows {
             let (name, smarts, site, kind, pka, low, high, source) = row?;
-            groups.push(Group::new(name, &smarts, site, &kind, pka, low, high, source)?);
+            groups.push(Group::new(
+                name, &smarts, site, &kind, pka, low, high, source,
+            )?);
         }
         Ok(groups)
     }

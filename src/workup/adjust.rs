@@ -91,11 +91,17 @@ fn prepare(input: &SoluteInput, groups: &[Group], water_l: f64) -> Result<Prepar
         profile.override_pkas(values)?;
     }
     let mass = molar_mass(&profile.molecule);
-    let amount_mol = input.amount.to_moles(Some(mass), Some(water_l)).map_err(|e| match e {
-        Error::Input(m) => Error::Input(format!("amount of {}: {m}", input.smiles)),
-        other => other,
-    })?;
-    Ok(Prepared { profile, amount_mol })
+    let amount_mol = input
+        .amount
+        .to_moles(Some(mass), Some(water_l))
+        .map_err(|e| match e {
+            Error::Input(m) => Error::Input(format!("amount of {}: {m}", input.smiles)),
+            other => other,
+        })?;
+    Ok(Prepared {
+        profile,
+        amount_mol,
+    })
 }
 
 /// The aqueous layer holding the prepared solutes, before any reagent.
@@ -118,7 +124,11 @@ fn layer_of(prepared: &[Prepared], water_l: f64) -> AqueousLayer {
                     pka: s.pka,
                 })
                 .collect();
-            layer.solutes.push(Protolyte::new(p.amount_mol, sites, parent.permanent_charge as f64));
+            layer.solutes.push(Protolyte::new(
+                p.amount_mol,
+                sites,
+                parent.permanent_charge as f64,
+            ));
         }
     }
     layer
@@ -130,17 +140,27 @@ fn choose_stock<'a>(reagent: &'a Reagent, asked: Option<&str>) -> Result<&'a Sto
         let form = StockForm::parse(text)?;
         return reagent.offer(&form);
     }
-    [StockForm::Molar(1.0), StockForm::Saturated, StockForm::Solid]
-        .iter()
-        .find_map(|f| reagent.offer(f).ok())
-        .or(reagent.stocks.first())
-        .ok_or_else(|| Error::Internal(format!("{} has no stock form", reagent.name)))
+    [
+        StockForm::Molar(1.0),
+        StockForm::Saturated,
+        StockForm::Solid,
+    ]
+    .iter()
+    .find_map(|f| reagent.offer(f).ok())
+    .or(reagent.stocks.first())
+    .ok_or_else(|| Error::Internal(format!("{} has no stock form", reagent.name)))
 }
 
 /// Solves the request: one `Adjustment` per target, in the order given.
-pub fn adjust(request: &Request, groups: &[Group], catalogue: &[Reagent]) -> Result<Vec<Adjustment>> {
+pub fn adjust(
+    request: &Request,
+    groups: &[Group],
+    catalogue: &[Reagent],
+) -> Result<Vec<Adjustment>> {
     if request.solutes.is_empty() {
-        return Err(Error::Input("give at least one --solute SMILES AMOUNT".into()));
+        return Err(Error::Input(
+            "give at least one --solute SMILES AMOUNT".into(),
+        ));
     }
     if request.targets.is_empty() {
         return Err(Error::Input("give a target with --to-ph".into()));
@@ -167,7 +187,14 @@ pub fn adjust(request: &Request, groups: &[Group], catalogue: &[Reagent]) -> Res
                 &request.conditions,
                 catalogue,
             )?;
-            report(&prepared, reagent, &dose, target, start.ph, total_solute_mol)
+            report(
+                &prepared,
+                reagent,
+                &dose,
+                target,
+                start.ph,
+                total_solute_mol,
+            )
         })
         .collect()
 }
@@ -197,7 +224,8 @@ fn report(
             mean_charge: these.iter().map(|s| s.mean_charge).sum(),
         });
     }
-    let gas = reagent.carbonate > 0.0 && eq.carbonate.co2_mol > 1e-3 * dose.reagent_mol * reagent.carbonate;
+    let gas = reagent.carbonate > 0.0
+        && eq.carbonate.co2_mol > 1e-3 * dose.reagent_mol * reagent.carbonate;
     let mut notes = Vec::new();
     if reagent.carbonate > 0.0 {
         notes.push(
@@ -208,10 +236,16 @@ fn report(
     }
     for p in prepared {
         if let Some(b) = &p.profile.compound.balanced_with {
-            notes.push(format!("{} carries a charge; taken as its salt with {b}.", p.profile.smiles));
+            notes.push(format!(
+                "{} carries a charge; taken as its salt with {b}.",
+                p.profile.smiles
+            ));
         }
         if p.profile.sites.is_empty() {
-            notes.push(format!("{} has no site that titrates in water; it stays neutral.", p.profile.smiles));
+            notes.push(format!(
+                "{} has no site that titrates in water; it stays neutral.",
+                p.profile.smiles
+            ));
         }
     }
     notes.push("Activity coefficients are taken as 1 (ideal solution) at 25 °C.".to_string());

@@ -29,9 +29,15 @@ pub fn cautions(reagent: &str, stock: &str, gas: bool) -> Result<Vec<String>> {
             && (r.stock == stock || r.stock == "*")
             && (r.when == "always" || (r.when == "gas" && gas))
     };
-    let (general, specific): (Vec<&Row>, Vec<&Row>) =
-        rows.iter().filter(|r| applies(r)).partition(|r| r.reagent == "*");
-    Ok(specific.into_iter().chain(general).map(|r| r.text.clone()).collect())
+    let (general, specific): (Vec<&Row>, Vec<&Row>) = rows
+        .iter()
+        .filter(|r| applies(r))
+        .partition(|r| r.reagent == "*");
+    Ok(specific
+        .into_iter()
+        .chain(general)
+        .map(|r| r.text.clone())
+        .collect())
 }
 
 #[cfg(test)]
@@ -50,7 +56,10 @@ mod tests {
     #[test]
     fn concentrated_acid_says_acid_into_water() {
         let c = cautions("hcl", "37%", false).unwrap();
-        assert!(c.iter().any(|c| c.contains("adding the acid slowly to water")));
+        assert!(
+            c.iter()
+                .any(|c| c.contains("adding the acid slowly to water"))
+        );
         assert!(c.iter().any(|c| c.contains("corrosive")));
     }
 }
