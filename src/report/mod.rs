@@ -63,7 +63,7 @@ mod tests {
 
     #[test]
     fn significant_figures() {
-        assert_eq!(sig(3.14159, 3), "3.14");
+        assert_eq!(sig(1.23456, 3), "1.23");
         assert_eq!(sig(0.0012345, 3), "0.00123");
         assert_eq!(sig(1234.6, 3), "1235"); // integer digits are kept, never rounded away
         assert_eq!(sig(0.0, 3), "0");
