@@ -162,7 +162,7 @@ pub fn request(args: &Args) -> Result<Request> {
     })
 }
 
-#[derive(Tabled, Serialize)]
+#[derive(Tabled)]
 struct DoseRow {
     #[tabled(rename = "target pH")]
     target_ph: String,
@@ -177,6 +177,40 @@ struct DoseRow {
     volume: String,
     #[tabled(rename = "pH reached")]
     ph: String,
+}
+
+/// One CSV row per target, in plain numbers for spreadsheets.
+#[derive(Serialize)]
+struct CsvRow {
+    target_ph: f64,
+    ph: f64,
+    start_ph: f64,
+    reagent: String,
+    stock: String,
+    reagent_mmol: f64,
+    equivalents: Option<f64>,
+    reagent_mass_g: Option<f64>,
+    stock_volume_ml: Option<f64>,
+    reagent_conc_mol_l: f64,
+    aqueous_volume_ml: f64,
+}
+
+impl From<&Adjustment> for CsvRow {
+    fn from(a: &Adjustment) -> Self {
+        CsvRow {
+            target_ph: a.target_ph,
+            ph: a.ph,
+            start_ph: a.start_ph,
+            reagent: a.reagent.clone(),
+            stock: a.stock.clone(),
+            reagent_mmol: a.reagent_mol * 1e3,
+            equivalents: a.equivalents,
+            reagent_mass_g: a.reagent_mass_g,
+            stock_volume_ml: a.stock_volume_ml,
+            reagent_conc_mol_l: a.reagent_conc_mol_l,
+            aqueous_volume_ml: a.aqueous_volume_ml,
+        }
+    }
 }
 
 #[derive(Tabled)]
@@ -256,7 +290,7 @@ pub fn run(args: &Args, cli: &Cli) -> Result<String> {
     let results = adjust(&request, &groups, &catalogue)?;
     match cli.format {
         Format::Table => Ok(table(&results)),
-        Format::Csv => report::csv(&results.iter().map(dose_row).collect::<Vec<_>>()),
+        Format::Csv => report::csv(&results.iter().map(CsvRow::from).collect::<Vec<_>>()),
         Format::Json if results.len() == 1 => report::json(&results[0]),
         Format::Json => report::json(&results),
         Format::Jsonl => report::jsonl(&results),
