@@ -131,3 +131,43 @@ impl Store {
         &self.conn
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn every_builtin_group_row_compiles() {
+        let groups = Store::in_memory().unwrap().groups().unwrap();
+        assert!(groups.len() >= 40, "{} rows", groups.len());
+    }
+
+    #[test]
+    fn a_data_refresh_leaves_other_tables_alone() {
+        let dir = std::env::temp_dir().join(format!("phdose-store-{}", std::process::id()));
+        let path = dir.join("s.sqlite");
+        let _ = std::fs::remove_file(&path);
+        {
+            let store = Store::open(&path).unwrap();
+            let c = store.connection();
+            c.execute_batch(
+                "CREATE TABLE user_notes (note TEXT);
+                 INSERT INTO user_notes VALUES ('my own row');
+                 UPDATE store_meta SET value = 'old' WHERE key = 'data_version';
+                 DELETE FROM builtin_groups;",
+            )
+            .unwrap();
+        }
+        let store = Store::open(&path).unwrap();
+        assert!(
+            !store.groups().unwrap().is_empty(),
+            "built-in rows refreshed"
+        );
+        let note: String = store
+            .connection()
+            .query_row("SELECT note FROM user_notes", [], |r| r.get(0))
+            .unwrap();
+        assert_eq!(note, "my own row");
+        std::fs::remove_dir_all(&dir).ok();
+    }
+}
