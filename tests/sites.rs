@@ -10,8 +10,10 @@ fn profile(smiles: &str) -> Profile {
     Profile::new(smiles, &groups).unwrap_or_else(|e| panic!("{smiles}: {e}"))
 }
 
-/// (SMILES, expected sites as (atom, kind), measured pKa of the main site and its source).
-const CASES: &[(&str, &[(usize, Kind)], f64, &str)] = &[
+/// SMILES, expected sites as (atom, kind), measured pKa of the main site, and its source.
+type Case = (&'static str, &'static [(usize, Kind)], f64, &'static str);
+
+const CASES: &[Case] = &[
     (
         "CC(=O)O",
         &[(3, Kind::Acid)],
