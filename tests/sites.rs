@@ -2,12 +2,10 @@
 //! spelling of a structure (Kekulé or aromatic, salt or charged form) does not change the answer.
 //! Expected site kinds and the nearby handbook values are named per case.
 
-use phdose::acidity::{Kind, Profile};
-use phdose::store::Store;
+use phdose::acidity::{Handbook, Kind, Profile};
 
 fn profile(smiles: &str) -> Profile {
-    let groups = Store::in_memory().unwrap().groups().unwrap();
-    Profile::new(smiles, &groups).unwrap_or_else(|e| panic!("{smiles}: {e}"))
+    Profile::new(smiles, &Handbook::builtin().unwrap()).unwrap_or_else(|e| panic!("{smiles}: {e}"))
 }
 
 /// SMILES, expected sites as (atom, kind), measured pKa of the main site, and its source.

@@ -1,10 +1,12 @@
 //! A compound's acid-base profile: the structure as written, its split into titrating parents
 //! and counter-ions, and the sites of each parent.
 
-use super::group::Group;
+use super::group::Kind;
+use super::handbook::Handbook;
 use super::sites::{Site, find_sites};
 use crate::chem::components::{Compound, split};
 use crate::chem::molecule::Molecule;
+use crate::equilibrium::{self, Protolyte, SiteKind};
 use crate::error::Result;
 
 /// Everything phdose knows about one input structure.
@@ -20,11 +22,11 @@ pub struct Profile {
 }
 
 impl Profile {
-    /// Reads `smiles` and finds its sites with `groups`.
-    pub fn new(smiles: &str, groups: &[Group]) -> Result<Profile> {
+    /// Reads `smiles` and finds its sites in the handbook.
+    pub fn new(smiles: &str, handbook: &Handbook) -> Result<Profile> {
         let molecule = Molecule::from_smiles(smiles)?;
         let compound = split(&molecule)?;
-        let sites = find_sites(&compound.neutral, groups)
+        let sites = find_sites(&compound.neutral, &handbook.groups)
             .into_iter()
             .filter(|s| compound.parents.iter().any(|p| p.atoms.contains(&s.atom)))
             .collect();
@@ -43,6 +45,37 @@ impl Profile {
             .iter()
             .filter(|s| atoms.contains(&s.atom))
             .collect()
+    }
+
+    /// The titrating species of `amount_mol` of this compound, for the charge balance: one
+    /// protolyte per parent, and the strong ions (cations, anions in moles of charge) its
+    /// counter-ions bring.
+    pub fn protolytes(&self, amount_mol: f64) -> (Vec<Protolyte>, f64, f64) {
+        let c = &self.compound;
+        let solutes = c
+            .parents
+            .iter()
+            .enumerate()
+            .map(|(i, parent)| {
+                let sites = self
+                    .parent_sites(i)
+                    .iter()
+                    .map(|s| equilibrium::Site {
+                        kind: match s.kind {
+                            Kind::Acid => SiteKind::Acid,
+                            Kind::Base => SiteKind::Base,
+                        },
+                        pka: s.pka,
+                    })
+                    .collect();
+                Protolyte::new(amount_mol, sites, parent.permanent_charge as f64)
+            })
+            .collect();
+        (
+            solutes,
+            c.strong_cations * amount_mol,
+            c.strong_anions * amount_mol,
+        )
     }
 
     /// Replaces the pKa of every site, in atom order, with user-given values (`--pka`).

@@ -4,6 +4,7 @@ use serde::Serialize;
 use tabled::Tabled;
 
 use super::{Cli, Format, open_store};
+use crate::acidity::Handbook;
 use crate::equilibrium::{Conditions, Reagent};
 use crate::error::{Error, ParseError, Result};
 use crate::report::{self, sig};
@@ -285,9 +286,9 @@ fn table(results: &[Adjustment]) -> String {
 
 pub fn run(args: &Args, cli: &Cli) -> Result<String> {
     let request = request(args)?;
-    let groups = open_store(&cli.db)?.groups()?;
+    let handbook = Handbook::from_store(&open_store(&cli.db)?, args.estimate_only)?;
     let catalogue = Reagent::builtin()?;
-    let results = adjust(&request, &groups, &catalogue)?;
+    let results = adjust(&request, &handbook, &catalogue)?;
     match cli.format {
         Format::Table => Ok(table(&results)),
         Format::Csv => report::csv(&results.iter().map(CsvRow::from).collect::<Vec<_>>()),

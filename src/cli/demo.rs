@@ -5,7 +5,7 @@
 use serde::Serialize;
 
 use super::{Cli, Format, open_store};
-use crate::acidity::Group;
+use crate::acidity::Handbook;
 use crate::cli::pka::{PkaResult, annotate};
 use crate::equilibrium::{Conditions, Reagent};
 use crate::error::Result;
@@ -40,7 +40,7 @@ fn wash(
     target: f64,
     reagent: &str,
     stock: &str,
-    groups: &[Group],
+    handbook: &Handbook,
     catalogue: &[Reagent],
 ) -> Result<Adjustment> {
     let request = Request {
@@ -58,14 +58,14 @@ fn wash(
         stock: Some(stock.into()),
         conditions: Conditions::standard(),
     };
-    Ok(adjust(&request, groups, catalogue)?.remove(0))
+    Ok(adjust(&request, handbook, catalogue)?.remove(0))
 }
 
-fn scenario(groups: &[Group]) -> Result<Demo> {
+fn scenario(handbook: &Handbook) -> Result<Demo> {
     let catalogue = Reagent::builtin()?;
     let compounds = [ACID, AMINE, CATALYST, PRODUCT]
         .iter()
-        .map(|s| annotate(s, groups))
+        .map(|s| annotate(s, handbook))
         .collect::<Result<Vec<_>>>()?;
     let washes = vec![
         Wash {
@@ -75,13 +75,13 @@ fn scenario(groups: &[Group]) -> Result<Demo> {
                 2.0,
                 "hcl",
                 "1M",
-                groups,
+                handbook,
                 &catalogue,
             )?,
         },
         Wash {
             purpose: "basic wash: deprotonate the leftover carboxylic acid so it stays in water",
-            result: wash(&[(ACID, 0.80)], 9.0, "naoh", "1M", groups, &catalogue)?,
+            result: wash(&[(ACID, 0.80)], 9.0, "naoh", "1M", handbook, &catalogue)?,
         },
     ];
     Ok(Demo {
@@ -151,8 +151,8 @@ fn text(demo: &Demo) -> String {
 }
 
 pub fn run(_args: &Args, cli: &Cli) -> Result<String> {
-    let groups = open_store(&cli.db)?.groups()?;
-    let demo = scenario(&groups)?;
+    let handbook = Handbook::from_store(&open_store(&cli.db)?, false)?;
+    let demo = scenario(&handbook)?;
     match cli.format {
         Format::Json | Format::Jsonl => report::json(&demo),
         Format::Table | Format::Csv => Ok(text(&demo)),

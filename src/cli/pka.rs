@@ -6,7 +6,7 @@ use serde::Serialize;
 use tabled::Tabled;
 
 use super::{Cli, Format, input, open_store};
-use crate::acidity::{Group, Profile, Site};
+use crate::acidity::{Handbook, Profile, Site};
 use crate::error::{Error, Result};
 use crate::report;
 
@@ -44,8 +44,8 @@ struct Row {
 }
 
 /// Sites of one SMILES, or the error that stopped reading it.
-pub fn annotate(smiles: &str, groups: &[Group]) -> Result<PkaResult> {
-    let profile = Profile::new(smiles, groups)?;
+pub fn annotate(smiles: &str, handbook: &Handbook) -> Result<PkaResult> {
+    let profile = Profile::new(smiles, handbook)?;
     Ok(PkaResult {
         smiles: smiles.to_string(),
         sites: profile.sites,
@@ -98,10 +98,10 @@ pub fn run(args: &Args, cli: &Cli) -> Result<String> {
             "give at least one SMILES, or --input FILE".into(),
         ));
     }
-    let groups = open_store(&cli.db)?.groups()?;
+    let handbook = Handbook::from_store(&open_store(&cli.db)?, args.estimate_only)?;
     let mut results = Vec::with_capacity(list.len());
     for smiles in &list {
-        match annotate(smiles, &groups) {
+        match annotate(smiles, &handbook) {
             Ok(r) => results.push(r),
             Err(e) if !batch => return Err(e),
             Err(e) => results.push(PkaResult {

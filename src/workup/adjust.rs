@@ -5,11 +5,9 @@
 use serde::Serialize;
 
 use super::cautions::cautions;
-use crate::acidity::{Group, Kind, Profile, Site};
+use crate::acidity::{Handbook, Profile, Site};
 use crate::chem::formula::molar_mass;
-use crate::equilibrium::{
-    self, AqueousLayer, Conditions, Dose, Protolyte, Reagent, SiteKind, StockForm, StockOffer,
-};
+use crate::equilibrium::{self, AqueousLayer, Conditions, Dose, Reagent, StockForm, StockOffer};
 use crate::error::{Error, Result};
 use crate::units::Amount;
 
@@ -85,8 +83,8 @@ struct Prepared {
     amount_mol: f64,
 }
 
-fn prepare(input: &SoluteInput, groups: &[Group], water_l: f64) -> Result<Prepared> {
-    let mut profile = Profile::new(&input.smiles, groups)?;
+fn prepare(input: &SoluteInput, handbook: &Handbook, water_l: f64) -> Result<Prepared> {
+    let mut profile = Profile::new(&input.smiles, handbook)?;
     if let Some(values) = &input.pka_override {
         profile.override_pkas(values)?;
     }
@@ -108,28 +106,10 @@ fn prepare(input: &SoluteInput, groups: &[Group], water_l: f64) -> Result<Prepar
 fn layer_of(prepared: &[Prepared], water_l: f64) -> AqueousLayer {
     let mut layer = AqueousLayer::water(water_l);
     for p in prepared {
-        let c = &p.profile.compound;
-        layer.strong_cations_mol += c.strong_cations * p.amount_mol;
-        layer.strong_anions_mol += c.strong_anions * p.amount_mol;
-        for (i, parent) in c.parents.iter().enumerate() {
-            let sites = p
-                .profile
-                .parent_sites(i)
-                .iter()
-                .map(|s| equilibrium::Site {
-                    kind: match s.kind {
-                        Kind::Acid => SiteKind::Acid,
-                        Kind::Base => SiteKind::Base,
-                    },
-                    pka: s.pka,
-                })
-                .collect();
-            layer.solutes.push(Protolyte::new(
-                p.amount_mol,
-                sites,
-                parent.permanent_charge as f64,
-            ));
-        }
+        let (solutes, cations, anions) = p.profile.protolytes(p.amount_mol);
+        layer.solutes.extend(solutes);
+        layer.strong_cations_mol += cations;
+        layer.strong_anions_mol += anions;
     }
     layer
 }
@@ -154,7 +134,7 @@ fn choose_stock<'a>(reagent: &'a Reagent, asked: Option<&str>) -> Result<&'a Sto
 /// Solves the request: one `Adjustment` per target, in the order given.
 pub fn adjust(
     request: &Request,
-    groups: &[Group],
+    handbook: &Handbook,
     catalogue: &[Reagent],
 ) -> Result<Vec<Adjustment>> {
     if request.solutes.is_empty() {
@@ -168,7 +148,7 @@ pub fn adjust(
     let prepared = request
         .solutes
         .iter()
-        .map(|s| prepare(s, groups, request.water_l))
+        .map(|s| prepare(s, handbook, request.water_l))
         .collect::<Result<Vec<_>>>()?;
     let layer = layer_of(&prepared, request.water_l);
     let reagent = Reagent::find(catalogue, &request.reagent)?;
