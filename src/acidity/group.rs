@@ -38,6 +38,10 @@ pub struct Group {
     pub pka_low: f64,
     pub pka_high: f64,
     pub source: String,
+    /// The linear free-energy series (`data/series.csv`) that corrects this group's value.
+    pub series: Option<String>,
+    /// SMILES of the compound whose value `pka` is; corrections are taken against it.
+    pub parent: Option<String>,
 }
 
 impl Group {
@@ -84,6 +88,8 @@ impl Group {
             pka_low,
             pka_high,
             source,
+            series: None,
+            parent: None,
         })
     }
 }

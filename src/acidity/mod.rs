@@ -1,9 +1,14 @@
 //! Acidity: which atoms of a molecule gain or lose a proton in water, and their pKa values.
 
+pub mod estimate;
 pub mod group;
+pub mod hammett;
 pub mod handbook;
+pub mod lookup;
 pub mod profile;
 pub mod sites;
+pub mod substituent;
+pub mod taft;
 
 pub use group::{Group, Kind};
 pub use handbook::Handbook;

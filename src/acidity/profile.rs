@@ -3,7 +3,8 @@
 
 use super::group::Kind;
 use super::handbook::Handbook;
-use super::sites::{Site, find_sites};
+use super::estimate::estimate_sites;
+use super::sites::Site;
 use crate::chem::components::{Compound, split};
 use crate::chem::molecule::Molecule;
 use crate::equilibrium::{self, Protolyte, SiteKind};
@@ -26,7 +27,7 @@ impl Profile {
     pub fn new(smiles: &str, handbook: &Handbook) -> Result<Profile> {
         let molecule = Molecule::from_smiles(smiles)?;
         let compound = split(&molecule)?;
-        let sites = find_sites(&compound.neutral, &handbook.groups)
+        let sites = estimate_sites(&compound.neutral, &handbook.groups, &handbook.estimator)
             .into_iter()
             .filter(|s| compound.parents.iter().any(|p| p.atoms.contains(&s.atom)))
             .collect();

@@ -8,11 +8,14 @@ use rusqlite::Connection;
 use crate::error::{Error, Result};
 
 /// The embedded migrations, in the order they must be applied.
-pub const MIGRATIONS: &[(u32, &str, &str)] = &[(
-    1,
-    "groups",
-    include_str!("../../migrations/0001_groups.sql"),
-)];
+pub const MIGRATIONS: &[(u32, &str, &str)] = &[
+    (1, "groups", include_str!("../../migrations/0001_groups.sql")),
+    (
+        3,
+        "substituents",
+        include_str!("../../migrations/0003_substituents.sql"),
+    ),
+];
 
 /// Applies every migration newer than the store's recorded version. Returns how many ran.
 pub fn migrate(conn: &mut Connection) -> Result<usize> {

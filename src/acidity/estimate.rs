@@ -1,0 +1,222 @@
+//! The pKa estimate of a site: its group's typical value corrected for substituents by the
+//! group's linear free-energy series (Hammett or Taft), with a range that widens as the
+//! corrections grow, are summed, or rest on stand-in constants.
+//!
+//! With a parent compound on the group row the estimate is
+//! `pka(group) - rho * (sum sigma(molecule) - sum sigma(parent))`, so the group's own atoms
+//! cancel; without one it is `base(series) - rho * sum sigma`.
+
+use std::collections::HashMap;
+
+use super::group::Group;
+use super::lookup::Lookup;
+use super::sites::{Site, find_sites};
+use super::substituent::{Constant, Series, SeriesRow, Substituent, SubstituentRow};
+use super::{hammett, taft};
+use crate::chem::molecule::Molecule;
+use crate::error::{Error, Result};
+
+/// Range widening per unit of |shift| of each correction term: a sigma value and a rho are each
+/// good to about 10 % outside their calibration set (Perrin, Dempsey & Serjeant 1981 quote
+/// estimates as good to a few tenths for one or two substituents; from memory).
+const WIDEN_PER_SHIFT: f64 = 0.10;
+/// Extra half-width per ortho substituent (proximity effects beyond sigma_o; common practice).
+const WIDEN_ORTHO: f64 = 0.30;
+/// Extra half-width, in sigma units times rho, where sigma_p stands in for a missing sigma_o.
+const WIDEN_STAND_IN: f64 = 0.25;
+/// Extra half-width per substituent with no tabulated constant.
+const WIDEN_UNKNOWN: f64 = 0.40;
+/// Net corrections beyond this many pKa units are extrapolations: widen by a further share.
+const EXTRAPOLATION_START: f64 = 3.0;
+const WIDEN_EXTRAPOLATION: f64 = 0.15;
+
+/// One substituent's contribution.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Term {
+    /// Position and substituent name ("p-nitro") or the Taft group.
+    pub label: String,
+    pub sigma: f64,
+    /// pKa change (-rho * sigma, plus any ortho shift).
+    pub shift: f64,
+    pub ortho: bool,
+    /// sigma_p used in place of a missing sigma_o.
+    pub stand_in: bool,
+}
+
+/// The substituent terms found around one site.
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct Correction {
+    pub terms: Vec<Term>,
+    /// Substituents with no tabulated constant.
+    pub unknown: usize,
+}
+
+impl Correction {
+    fn sum_sigma(&self) -> f64 {
+        self.terms.iter().map(|t| t.sigma).sum()
+    }
+    fn shift(&self) -> f64 {
+        self.terms.iter().map(|t| t.shift).sum()
+    }
+}
+
+/// A group's series with its parent's correction precomputed.
+#[derive(Debug, Clone)]
+struct GroupSeries {
+    series: usize,
+    parent: Option<Correction>,
+}
+
+/// The compiled substituent and series tables, and which series each group follows.
+#[derive(Debug, Clone, Default)]
+pub struct Estimator {
+    pub substituents: Vec<Substituent>,
+    pub series: Vec<Series>,
+    /// Per group (same order as the handbook's groups).
+    links: Vec<Option<GroupSeries>>,
+}
+
+impl Estimator {
+    /// Compiles the tables and links every group row that names a series (`group.series`),
+    /// computing its parent's substituent terms once.
+    pub fn new(
+        substituents: Vec<SubstituentRow>,
+        series: Vec<SeriesRow>,
+        groups: &[Group],
+    ) -> Result<Estimator> {
+        let mut e = Estimator {
+            substituents: substituents
+                .into_iter()
+                .map(SubstituentRow::compile)
+                .collect::<Result<_>>()?,
+            series: series
+                .into_iter()
+                .map(SeriesRow::compile)
+                .collect::<Result<_>>()?,
+            links: Vec::new(),
+        };
+        let by_name: HashMap<&str, usize> = e
+            .series
+            .iter()
+            .enumerate()
+            .map(|(i, s)| (s.name.as_str(), i))
+            .collect();
+        let mut links = Vec::with_capacity(groups.len());
+        for g in groups {
+            let Some(name) = &g.series else {
+                links.push(None);
+                continue;
+            };
+            let &series = by_name.get(name.as_str()).ok_or_else(|| {
+                Error::Internal(format!("group '{}' names unknown series '{name}'", g.name))
+            })?;
+            let parent = match &g.parent {
+                Some(smiles) => Some(e.parent_correction(g, series, smiles)?),
+                None => None,
+            };
+            links.push(Some(GroupSeries { series, parent }));
+        }
+        e.links = links;
+        Ok(e)
+    }
+
+    fn parent_correction(&self, g: &Group, series: usize, smiles: &str) -> Result<Correction> {
+        let bad = |why: String| Error::Internal(format!("group '{}' parent {smiles}: {why}", g.name));
+        let mol = Molecule::from_smiles(smiles).map_err(|e| bad(e.to_string()))?;
+        let site = g
+            .pattern
+            .first_match(&mol)
+            .map(|m| m[g.site])
+            .ok_or_else(|| bad("the group's pattern does not match its parent".into()))?;
+        let look = Lookup::new(&mol, &self.substituents);
+        self.correction(&mol, site, &self.series[series], &look)
+            .ok_or_else(|| bad("no correction can be computed for the parent".into()))
+    }
+
+    fn correction(&self, mol: &Molecule, site: usize, series: &Series, look: &Lookup) -> Option<Correction> {
+        match series.constant {
+            Constant::Hammett => hammett::correct(mol, site, series, look),
+            Constant::Taft => Some(taft::correct(mol, site, series, look)),
+        }
+    }
+
+    /// Corrects `site` (found with `groups[g]`) in place.
+    fn apply(&self, mol: &Molecule, site: &mut Site, group: &Group, g: usize, look: &Lookup) {
+        let Some(Some(link)) = self.links.get(g) else {
+            site.source = format!("estimate: {}; {}", group.name, group.source);
+            return;
+        };
+        let series = &self.series[link.series];
+        let Some(c) = self.correction(mol, site.atom, series, look) else {
+            site.source = format!("estimate: {} (no {} ring found); {}", group.name, series.name, group.source);
+            return;
+        };
+        let (base, shift) = match &link.parent {
+            Some(p) => (group.pka, c.shift() - p.shift()),
+            None => (series.base, c.shift()),
+        };
+        let pka = base + shift;
+        let mut widen: f64 = c.terms.iter().map(|t| WIDEN_PER_SHIFT * t.shift.abs()).sum();
+        widen += c.terms.iter().filter(|t| t.ortho).count() as f64 * WIDEN_ORTHO;
+        widen += c.terms.iter().filter(|t| t.stand_in).count() as f64 * WIDEN_STAND_IN * series.rho.abs().min(3.0);
+        widen += c.unknown as f64 * WIDEN_UNKNOWN;
+        if let Some(p) = &link.parent {
+            // The parent's own terms are exact by construction: do not widen for them.
+            widen -= p.terms.iter().map(|t| WIDEN_PER_SHIFT * t.shift.abs()).sum::<f64>();
+            widen -= p.terms.iter().filter(|t| t.ortho).count() as f64 * WIDEN_ORTHO;
+            widen = widen.max(0.0);
+        }
+        let extrapolated = (pka - group.pka).abs() - EXTRAPOLATION_START;
+        if extrapolated > 0.0 {
+            widen += WIDEN_EXTRAPOLATION * extrapolated;
+        }
+        site.pka = pka;
+        site.pka_low = pka - (group.pka - group.pka_low) - widen;
+        site.pka_high = pka + (group.pka_high - group.pka) + widen;
+        site.source = describe(group, series, &c, link.parent.as_ref());
+    }
+}
+
+fn describe(group: &Group, series: &Series, c: &Correction, parent: Option<&Correction>) -> String {
+    let law = match series.constant {
+        Constant::Hammett => "Hammett",
+        Constant::Taft => "Taft",
+    };
+    let sigma = match series.constant {
+        Constant::Hammett => "sigma",
+        Constant::Taft => "sigma*",
+    };
+    let terms: Vec<String> = c
+        .terms
+        .iter()
+        .filter(|t| t.sigma != 0.0)
+        .map(|t| format!("{} {:.2}", t.label, t.sigma))
+        .collect();
+    let reference = match parent {
+        Some(p) => format!(" against parent {:.2}", p.sum_sigma()),
+        None => String::new(),
+    };
+    format!(
+        "estimate: {} + {law} rho {:.2}, sum {sigma} {:.2}{reference}{}{}",
+        group.name,
+        series.rho,
+        c.sum_sigma(),
+        if terms.is_empty() { String::new() } else { format!(" ({})", terms.join(", ")) },
+        if c.unknown > 0 { format!(", {} group(s) without constants", c.unknown) } else { String::new() },
+    )
+}
+
+/// The sites of `mol` with corrected pKa estimates, sorted by atom index.
+pub fn estimate_sites(mol: &Molecule, groups: &[Group], estimator: &Estimator) -> Vec<Site> {
+    let mut sites = find_sites(mol, groups);
+    if sites.is_empty() {
+        return sites;
+    }
+    let look = Lookup::new(mol, &estimator.substituents);
+    for site in &mut sites {
+        if let Some(g) = groups.iter().position(|g| g.name == site.group) {
+            estimator.apply(mol, site, &groups[g], g, &look);
+        }
+    }
+    sites
+}

@@ -1,0 +1,109 @@
+//! Hammett corrections for sites on or next to a six-membered aromatic ring: every ring
+//! substituent counts with sigma_o, sigma_m or sigma_p by its ring distance from the ring atom
+//! nearest the site (the ipso atom), times the series' rho. Aza ring members count too
+//! (pyrimidine against pyridine), and the far atoms of a fused ring count as aryl groups.
+
+use std::collections::VecDeque;
+
+use super::estimate::{Correction, Term};
+use super::lookup::Lookup;
+use super::substituent::{Position, Series};
+use crate::chem::molecule::Molecule;
+
+/// How far from the site (in bonds) the ring may start: phenylacetic acid O-C-C-c is three.
+const MAX_REACH: usize = 3;
+
+/// The Hammett terms of the site at `site`, or `None` when no six-membered aromatic ring lies
+/// within reach.
+pub fn correct(mol: &Molecule, site: usize, series: &Series, look: &Lookup) -> Option<Correction> {
+    let (ipso, came_from) = nearest_ring_atom(mol, site)?;
+    let ring = mol
+        .rings
+        .rings
+        .iter()
+        .find(|r| r.len() == 6 && r.contains(&ipso) && r.iter().all(|&a| mol.atoms[a].aromatic))?;
+    let mut c = Correction::default();
+    for &r in ring {
+        let distance = ring_distance(ring, ipso, r);
+        if r != ipso
+            && let Some(row) = look.at(r, None, Position::Ring)
+        {
+            add(&mut c, series, row.sigma_at(distance, series.para_minus), distance, &row.name, false);
+        }
+        for &(x, _) in &mol.adjacency[r] {
+            if ring.contains(&x) || Some(x) == came_from || x == site {
+                continue;
+            }
+            if r == ipso {
+                // A second group on the ipso atom itself (rare): no Hammett position.
+                c.unknown += 1;
+                continue;
+            }
+            match look.at(x, Some(r), Position::Attached) {
+                Some(row) => add(
+                    &mut c,
+                    series,
+                    row.sigma_at(distance, series.para_minus),
+                    distance,
+                    &row.name,
+                    true,
+                ),
+                None => c.unknown += 1,
+            }
+        }
+    }
+    Some(c)
+}
+
+fn add(c: &mut Correction, series: &Series, (sigma, stand_in): (f64, bool), distance: usize, name: &str, attached: bool) {
+    let label = ["ipso", "o", "m", "p"][distance.min(3)];
+    let mut shift = -series.rho * sigma;
+    let ortho = distance == 1;
+    if ortho && attached {
+        shift += series.ortho_shift;
+    }
+    c.terms.push(Term {
+        label: format!("{label}-{name}"),
+        sigma,
+        shift,
+        ortho,
+        stand_in,
+    });
+}
+
+/// Breadth-first from the site to the first aromatic atom of a six-membered ring; also the
+/// atom the path arrived from (not a substituent of the ring).
+fn nearest_ring_atom(mol: &Molecule, site: usize) -> Option<(usize, Option<usize>)> {
+    let in_six_ring = |a: usize| {
+        mol.atoms[a].aromatic
+            && mol.rings.rings.iter().any(|r| r.len() == 6 && r.contains(&a))
+    };
+    let mut prev = vec![None; mol.atoms.len()];
+    let mut depth = vec![usize::MAX; mol.atoms.len()];
+    let mut queue = VecDeque::from([site]);
+    depth[site] = 0;
+    while let Some(a) = queue.pop_front() {
+        if in_six_ring(a) {
+            return Some((a, prev[a]));
+        }
+        if depth[a] == MAX_REACH {
+            continue;
+        }
+        for &(x, _) in &mol.adjacency[a] {
+            if depth[x] == usize::MAX {
+                depth[x] = depth[a] + 1;
+                prev[x] = Some(a);
+                queue.push_back(x);
+            }
+        }
+    }
+    None
+}
+
+/// Bonds between two members of a six-membered ring (its atoms in cycle order).
+fn ring_distance(ring: &[usize], a: usize, b: usize) -> usize {
+    let i = ring.iter().position(|&x| x == a).unwrap_or(0);
+    let j = ring.iter().position(|&x| x == b).unwrap_or(0);
+    let d = i.abs_diff(j);
+    d.min(ring.len() - d)
+}

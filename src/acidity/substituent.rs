@@ -1,0 +1,200 @@
+//! Substituent constants and linear free-energy series, as compiled from
+//! `data/substituents.csv` and `data/series.csv`: Hammett sigma (meta, para, para-minus, ortho)
+//! and Taft sigma* per substituent, and per series its rho, base value and the rules it follows.
+
+use crate::chem::smarts::Pattern;
+use crate::error::{Error, Result};
+
+/// Where a substituent row's anchor atom sits relative to the atom being corrected.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Position {
+    /// Bonded to the ring or chain atom (chloro, nitro, methyl ...).
+    Attached,
+    /// A ring member itself (an aza nitrogen in place of a ring C-H).
+    Ring,
+}
+
+/// One compiled substituent row.
+#[derive(Debug, Clone)]
+pub struct Substituent {
+    pub name: String,
+    pub pattern: Pattern,
+    pub position: Position,
+    pub sigma_m: Option<f64>,
+    pub sigma_p: Option<f64>,
+    pub sigma_minus: Option<f64>,
+    pub sigma_o: Option<f64>,
+    /// Taft sigma*; `None` on a saturated carbon means "follow the chain".
+    pub sigma_star: Option<f64>,
+    pub source: String,
+}
+
+/// Which substituent constant a series takes.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Constant {
+    Hammett,
+    Taft,
+}
+
+/// One compiled series row.
+#[derive(Debug, Clone)]
+pub struct Series {
+    pub name: String,
+    pub constant: Constant,
+    pub rho: f64,
+    /// pKa at zero sigma sum.
+    pub base: f64,
+    /// Para substituents use sigma-minus (the site's charge conjugates with the ring).
+    pub para_minus: bool,
+    /// Extra pKa change per ortho substituent, beyond its sigma_o.
+    pub ortho_shift: f64,
+    /// Factor per intervening saturated carbon (Taft series).
+    pub attenuation: f64,
+    pub source: String,
+}
+
+/// A stored substituent row, before compiling.
+#[derive(Debug, Clone, serde::Deserialize)]
+pub struct SubstituentRow {
+    pub name: String,
+    pub smarts: String,
+    pub position: String,
+    pub sigma_m: Option<f64>,
+    pub sigma_p: Option<f64>,
+    pub sigma_minus: Option<f64>,
+    pub sigma_o: Option<f64>,
+    pub sigma_star: Option<f64>,
+    pub source: String,
+}
+
+/// A stored series row, before compiling.
+#[derive(Debug, Clone, serde::Deserialize)]
+pub struct SeriesRow {
+    pub name: String,
+    pub constant: String,
+    pub rho: f64,
+    pub base: f64,
+    pub para: Option<String>,
+    pub ortho_shift: Option<f64>,
+    pub attenuation: Option<f64>,
+    pub source: String,
+}
+
+impl SubstituentRow {
+    /// Compiles the SMARTS and checks the row; a bad built-in row is an internal error.
+    pub fn compile(self) -> Result<Substituent> {
+        let bad = |why: String| Error::Internal(format!("substituent '{}': {why}", self.name));
+        let pattern = Pattern::parse(&self.smarts).map_err(|e| bad(e.to_string()))?;
+        let position = match self.position.as_str() {
+            "attached" => Position::Attached,
+            "ring" => Position::Ring,
+            other => return Err(bad(format!("unknown position '{other}'"))),
+        };
+        if self.sigma_m.is_none() || self.sigma_p.is_none() {
+            return Err(bad("sigma_m and sigma_p are required".into()));
+        }
+        Ok(Substituent {
+            name: self.name,
+            pattern,
+            position,
+            sigma_m: self.sigma_m,
+            sigma_p: self.sigma_p,
+            sigma_minus: self.sigma_minus,
+            sigma_o: self.sigma_o,
+            sigma_star: self.sigma_star,
+            source: self.source,
+        })
+    }
+}
+
+impl SeriesRow {
+    /// Checks the row; a bad built-in row is an internal error.
+    pub fn compile(self) -> Result<Series> {
+        let bad = |why: String| Error::Internal(format!("series '{}': {why}", self.name));
+        let constant = match self.constant.as_str() {
+            "hammett" => Constant::Hammett,
+            "taft" => Constant::Taft,
+            other => return Err(bad(format!("unknown constant '{other}'"))),
+        };
+        let para_minus = match self.para.as_deref() {
+            None | Some("") | Some("sigma_p") => false,
+            Some("sigma_minus") => true,
+            Some(other) => return Err(bad(format!("unknown para constant '{other}'"))),
+        };
+        let attenuation = match (constant, self.attenuation) {
+            (Constant::Taft, Some(a)) if a > 0.0 && a < 1.0 => a,
+            (Constant::Taft, _) => return Err(bad("a taft series needs 0 < attenuation < 1".into())),
+            (Constant::Hammett, a) => a.unwrap_or(0.0),
+        };
+        Ok(Series {
+            name: self.name,
+            constant,
+            rho: self.rho,
+            base: self.base,
+            para_minus,
+            ortho_shift: self.ortho_shift.unwrap_or(0.0),
+            attenuation,
+            source: self.source,
+        })
+    }
+}
+
+impl Substituent {
+    /// The Hammett constant for a ring distance (1 ortho, 2 meta, 3 para) and whether it is a
+    /// stand-in (sigma_p for a missing sigma_o).
+    pub fn sigma_at(&self, distance: usize, para_minus: bool) -> (f64, bool) {
+        let para = || {
+            if para_minus {
+                self.sigma_minus.or(self.sigma_p)
+            } else {
+                self.sigma_p
+            }
+            .unwrap_or(0.0)
+        };
+        match distance {
+            1 => match self.sigma_o {
+                Some(s) => (s, false),
+                None => (para(), true),
+            },
+            2 => (self.sigma_m.unwrap_or(0.0), false),
+            _ => (para(), false),
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn row(position: &str) -> SubstituentRow {
+        SubstituentRow {
+            name: "nitro".into(),
+            smarts: "[N+](=O)[O-]".into(),
+            position: position.into(),
+            sigma_m: Some(0.71),
+            sigma_p: Some(0.78),
+            sigma_minus: Some(1.27),
+            sigma_o: None,
+            sigma_star: Some(4.0),
+            source: "test row".into(),
+        }
+    }
+
+    #[test]
+    fn para_minus_is_used_only_where_the_series_asks() {
+        let s = row("attached").compile().unwrap();
+        assert_eq!(s.sigma_at(3, true), (1.27, false));
+        assert_eq!(s.sigma_at(3, false), (0.78, false));
+        assert_eq!(s.sigma_at(2, true), (0.71, false));
+        // No sigma_o: the para value stands in and says so.
+        assert_eq!(s.sigma_at(1, false), (0.78, true));
+    }
+
+    #[test]
+    fn bad_rows_are_internal_errors() {
+        assert!(row("sideways").compile().is_err());
+        let mut r = row("ring");
+        r.smarts = "[N+](".into();
+        assert!(r.compile().is_err());
+    }
+}

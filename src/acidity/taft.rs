@@ -1,0 +1,112 @@
+//! Taft sigma* corrections for aliphatic sites (carboxylic acids, ammonium ions, thiols): the
+//! groups on the site's centre atom are summed as sigma*, where a tabulated group is taken as
+//! is and a plain saturated carbon is followed outwards, each further atom's sigma* damped by
+//! the series' attenuation per intervening carbon (Perrin, Dempsey & Serjeant 1981).
+
+use super::estimate::{Correction, Term};
+use super::lookup::Lookup;
+use super::substituent::{Position, Series};
+use crate::chem::molecule::{Molecule, Order};
+
+/// sigma*(ethyl) - sigma*(methyl): each further alkyl carbon on a chain carbon donates a little
+/// (Taft 1956: ethyl -0.10, isopropyl -0.19, tert-butyl -0.30; from memory).
+const ALKYL_STEP: f64 = -0.10;
+/// Bonds followed outwards from the centre; beyond this the damped effect is negligible.
+const MAX_DEPTH: usize = 4;
+
+/// The Taft terms of the site at `site`.
+pub fn correct(mol: &Molecule, site: usize, series: &Series, look: &Lookup) -> Correction {
+    let centre = centre_atom(mol, site);
+    let mut visited = vec![false; mol.atoms.len()];
+    visited[site] = true;
+    visited[centre] = true;
+    let mut c = Correction::default();
+    for &(r, bond) in &mol.adjacency[centre] {
+        if visited[r] || mol.bonds[bond].order != Order::Single {
+            continue;
+        }
+        let mut walk = Walk {
+            mol,
+            look,
+            attenuation: series.attenuation,
+            visited: &mut visited,
+            unknown: 0,
+        };
+        let sigma = walk.group(r, centre, 1);
+        c.unknown += walk.unknown;
+        let name = look
+            .at(r, Some(centre), Position::Attached)
+            .map_or("alkyl", |row| row.name.as_str());
+        c.terms.push(Term {
+            label: name.to_string(),
+            sigma,
+            shift: -series.rho * sigma,
+            ortho: false,
+            stand_in: false,
+        });
+    }
+    c
+}
+
+/// The carbonyl carbon of an acid O-H or S-H (the groups sit on it); else the site itself.
+fn centre_atom(mol: &Molecule, site: usize) -> usize {
+    if matches!(mol.atoms[site].element, 8 | 16)
+        && let [(c, _)] = mol.adjacency[site][..]
+        && mol.adjacency[c]
+            .iter()
+            .any(|&(x, b)| x != site && mol.bonds[b].order == Order::Double && mol.atoms[x].element != 6)
+    {
+        return c;
+    }
+    site
+}
+
+struct Walk<'m, 'v> {
+    mol: &'m Molecule,
+    look: &'m Lookup<'m>,
+    attenuation: f64,
+    visited: &'v mut Vec<bool>,
+    unknown: usize,
+}
+
+impl Walk<'_, '_> {
+    /// sigma* of the group rooted at `atom`, reached from `from`.
+    fn group(&mut self, atom: usize, from: usize, depth: usize) -> f64 {
+        if let Some(s) = self
+            .look
+            .at(atom, Some(from), Position::Attached)
+            .and_then(|row| row.sigma_star)
+        {
+            return s;
+        }
+        if !self.saturated_carbon(atom) {
+            self.unknown += 1;
+            return 0.0;
+        }
+        if depth >= MAX_DEPTH {
+            return 0.0;
+        }
+        self.visited[atom] = true;
+        let mut sum = 0.0;
+        for &(x, _) in &self.mol.adjacency[atom] {
+            if x == from || self.visited[x] {
+                continue;
+            }
+            let s = self.group(x, atom, depth + 1);
+            sum += self.attenuation * s;
+            if s <= 0.0 && self.saturated_carbon(x) {
+                sum += ALKYL_STEP;
+            }
+        }
+        sum
+    }
+
+    fn saturated_carbon(&self, atom: usize) -> bool {
+        let a = &self.mol.atoms[atom];
+        a.element == 6
+            && !a.aromatic
+            && self.mol.adjacency[atom]
+                .iter()
+                .all(|&(_, b)| self.mol.bonds[b].order == Order::Single)
+    }
+}
