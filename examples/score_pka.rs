@@ -88,22 +88,36 @@ fn run() -> Result<(), Box<dyn std::error::Error>> {
         let Ok(truth) = record[c_pka].parse::<f64>() else {
             continue;
         };
-        let sites = Profile::new(smiles, &handbook).map(|p| p.sites).unwrap_or_default();
+        let sites = Profile::new(smiles, &handbook)
+            .map(|p| p.sites)
+            .unwrap_or_default();
         let pick = sites.iter().filter(|s| s.kind == kind).min_by(|a, b| {
             let key = |s: &&phdose::acidity::Site| if kind == Kind::Acid { s.pka } else { -s.pka };
             key(a).total_cmp(&key(b))
         });
         let hit = pick.map(|s| (s.pka, s.pka_low, s.pka_high));
-        let group = pick.map_or_else(|| format!("(no {} site)", kind.as_str()), |s| s.group.clone());
+        let group = pick.map_or_else(
+            || format!("(no {} site)", kind.as_str()),
+            |s| s.group.clone(),
+        );
         all.add(hit, truth);
         by_group.entry(group.clone()).or_default().add(hit, truth);
         let err = pick.map_or(f64::INFINITY, |s| (s.pka - truth).abs());
-        misses.push((err, format!("{smiles} {} {truth} -> {:?} [{group}]", kind.as_str(), hit)));
+        misses.push((
+            err,
+            format!("{smiles} {} {truth} -> {:?} [{group}]", kind.as_str(), hit),
+        ));
     }
-    println!("{:<48} {:>5} {:>6} {:>6} {:>6} {:>6}", "group", "n", "cov%", "MAE", "RMSE", "in%");
+    println!(
+        "{:<48} {:>5} {:>6} {:>6} {:>6} {:>6}",
+        "group", "n", "cov%", "MAE", "RMSE", "in%"
+    );
     println!("{}", all.line("all"));
     for (name, t) in &by_group {
         println!("{}", t.line(name));
+    }
+    if !args.iter().any(|a| a == "--missing") {
+        misses.retain(|m| m.0.is_finite());
     }
     misses.sort_by(|a, b| b.0.total_cmp(&a.0));
     for (_, line) in misses.iter().take(worst) {

@@ -41,6 +41,9 @@ pub struct Term {
     pub ortho: bool,
     /// sigma_p used in place of a missing sigma_o.
     pub stand_in: bool,
+    /// sigma_m of an ortho/para ring substituent: what a donor keeps when another donor
+    /// already conjugates with the site.
+    pub inductive: Option<f64>,
 }
 
 /// The substituent terms found around one site.
@@ -121,7 +124,8 @@ impl Estimator {
     }
 
     fn parent_correction(&self, g: &Group, series: usize, smiles: &str) -> Result<Correction> {
-        let bad = |why: String| Error::Internal(format!("group '{}' parent {smiles}: {why}", g.name));
+        let bad =
+            |why: String| Error::Internal(format!("group '{}' parent {smiles}: {why}", g.name));
         let mol = Molecule::from_smiles(smiles).map_err(|e| bad(e.to_string()))?;
         let site = g
             .pattern
@@ -133,7 +137,13 @@ impl Estimator {
             .ok_or_else(|| bad("no correction can be computed for the parent".into()))
     }
 
-    fn correction(&self, mol: &Molecule, site: usize, series: &Series, look: &Lookup) -> Option<Correction> {
+    fn correction(
+        &self,
+        mol: &Molecule,
+        site: usize,
+        series: &Series,
+        look: &Lookup,
+    ) -> Option<Correction> {
         match series.constant {
             Constant::Hammett => hammett::correct(mol, site, series, look),
             Constant::Taft => Some(taft::correct(mol, site, series, look)),
@@ -148,7 +158,10 @@ impl Estimator {
         };
         let series = &self.series[link.series];
         let Some(c) = self.correction(mol, site.atom, series, look) else {
-            site.source = format!("estimate: {} (no {} ring found); {}", group.name, series.name, group.source);
+            site.source = format!(
+                "estimate: {} (no {} ring found); {}",
+                group.name, series.name, group.source
+            );
             return;
         };
         let (base, shift) = match &link.parent {
@@ -156,13 +169,23 @@ impl Estimator {
             None => (series.base, c.shift()),
         };
         let pka = base + shift;
-        let mut widen: f64 = c.terms.iter().map(|t| WIDEN_PER_SHIFT * t.shift.abs()).sum();
+        let mut widen: f64 = c
+            .terms
+            .iter()
+            .map(|t| WIDEN_PER_SHIFT * t.shift.abs())
+            .sum();
         widen += c.terms.iter().filter(|t| t.ortho).count() as f64 * WIDEN_ORTHO;
-        widen += c.terms.iter().filter(|t| t.stand_in).count() as f64 * WIDEN_STAND_IN * series.rho.abs().min(3.0);
+        widen += c.terms.iter().filter(|t| t.stand_in).count() as f64
+            * WIDEN_STAND_IN
+            * series.rho.abs().min(3.0);
         widen += c.unknown as f64 * WIDEN_UNKNOWN;
         if let Some(p) = &link.parent {
             // The parent's own terms are exact by construction: do not widen for them.
-            widen -= p.terms.iter().map(|t| WIDEN_PER_SHIFT * t.shift.abs()).sum::<f64>();
+            widen -= p
+                .terms
+                .iter()
+                .map(|t| WIDEN_PER_SHIFT * t.shift.abs())
+                .sum::<f64>();
             widen -= p.terms.iter().filter(|t| t.ortho).count() as f64 * WIDEN_ORTHO;
             widen = widen.max(0.0);
         }
@@ -201,8 +224,16 @@ fn describe(group: &Group, series: &Series, c: &Correction, parent: Option<&Corr
         group.name,
         series.rho,
         c.sum_sigma(),
-        if terms.is_empty() { String::new() } else { format!(" ({})", terms.join(", ")) },
-        if c.unknown > 0 { format!(", {} group(s) without constants", c.unknown) } else { String::new() },
+        if terms.is_empty() {
+            String::new()
+        } else {
+            format!(" ({})", terms.join(", "))
+        },
+        if c.unknown > 0 {
+            format!(", {} group(s) without constants", c.unknown)
+        } else {
+            String::new()
+        },
     )
 }
 

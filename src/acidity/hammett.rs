@@ -17,18 +17,25 @@ const MAX_REACH: usize = 3;
 /// within reach.
 pub fn correct(mol: &Molecule, site: usize, series: &Series, look: &Lookup) -> Option<Correction> {
     let (ipso, came_from) = nearest_ring_atom(mol, site)?;
-    let ring = mol
-        .rings
-        .rings
-        .iter()
-        .find(|r| r.len() == 6 && r.contains(&ipso) && r.iter().all(|&a| mol.atoms[a].aromatic))?;
+    let ring =
+        mol.rings.rings.iter().find(|r| {
+            r.len() == 6 && r.contains(&ipso) && r.iter().all(|&a| mol.atoms[a].aromatic)
+        })?;
     let mut c = Correction::default();
     for &r in ring {
         let distance = ring_distance(ring, ipso, r);
         if r != ipso
             && let Some(row) = look.at(r, None, Position::Ring)
         {
-            add(&mut c, series, row.sigma_at(distance, series.para_minus), distance, &row.name, false);
+            add(
+                &mut c,
+                series,
+                row.sigma_at(distance, series.para_minus),
+                distance,
+                &row.name,
+                false,
+                None,
+            );
         }
         for &(x, _) in &mol.adjacency[r] {
             if ring.contains(&x) || Some(x) == came_from || x == site {
@@ -47,15 +54,47 @@ pub fn correct(mol: &Molecule, site: usize, series: &Series, look: &Lookup) -> O
                     distance,
                     &row.name,
                     true,
+                    row.sigma_m,
                 ),
                 None => c.unknown += 1,
             }
         }
     }
+    saturate_donors(&mut c, series);
     Some(c)
 }
 
-fn add(c: &mut Correction, series: &Series, (sigma, stand_in): (f64, bool), distance: usize, name: &str, attached: bool) {
+/// Strong ortho/para donors below this sigma compete for one conjugation path.
+const STRONG_DONOR: f64 = -0.2;
+
+/// Resonance saturation: of several strong ortho/para donors (amino groups on one pyrimidine)
+/// only the strongest conjugates fully with the site; the others count with sigma_m, their
+/// inductive part (Perrin, Dempsey & Serjeant 1981 warn that sigma_p values are not additive
+/// for several donors; this split is our rule).
+fn saturate_donors(c: &mut Correction, series: &Series) {
+    let mut donors: Vec<usize> = (0..c.terms.len())
+        .filter(|&i| c.terms[i].sigma < STRONG_DONOR && c.terms[i].inductive.is_some())
+        .collect();
+    donors.sort_by(|&a, &b| c.terms[a].sigma.total_cmp(&c.terms[b].sigma));
+    for &i in donors.iter().skip(1) {
+        let t = &mut c.terms[i];
+        if let Some(m) = t.inductive {
+            t.shift += series.rho * (t.sigma - m);
+            t.sigma = m;
+            t.stand_in = false;
+        }
+    }
+}
+
+fn add(
+    c: &mut Correction,
+    series: &Series,
+    (sigma, stand_in): (f64, bool),
+    distance: usize,
+    name: &str,
+    attached: bool,
+    sigma_m: Option<f64>,
+) {
     let label = ["ipso", "o", "m", "p"][distance.min(3)];
     let mut shift = -series.rho * sigma;
     let ortho = distance == 1;
@@ -68,6 +107,7 @@ fn add(c: &mut Correction, series: &Series, (sigma, stand_in): (f64, bool), dist
         shift,
         ortho,
         stand_in,
+        inductive: (distance != 2 && attached).then_some(sigma_m).flatten(),
     });
 }
 
@@ -76,7 +116,11 @@ fn add(c: &mut Correction, series: &Series, (sigma, stand_in): (f64, bool), dist
 fn nearest_ring_atom(mol: &Molecule, site: usize) -> Option<(usize, Option<usize>)> {
     let in_six_ring = |a: usize| {
         mol.atoms[a].aromatic
-            && mol.rings.rings.iter().any(|r| r.len() == 6 && r.contains(&a))
+            && mol
+                .rings
+                .rings
+                .iter()
+                .any(|r| r.len() == 6 && r.contains(&a))
     };
     let mut prev = vec![None; mol.atoms.len()];
     let mut depth = vec![usize::MAX; mol.atoms.len()];

@@ -21,7 +21,12 @@ impl<'a> Lookup<'a> {
     }
 
     /// The first row of `position` anchored on `atom` whose embedding avoids `from`.
-    pub fn at(&self, atom: usize, from: Option<usize>, position: Position) -> Option<&'a Substituent> {
+    pub fn at(
+        &self,
+        atom: usize,
+        from: Option<usize>,
+        position: Position,
+    ) -> Option<&'a Substituent> {
         self.rows
             .iter()
             .zip(&self.embeddings)

@@ -1,9 +1,9 @@
 //! A compound's acid-base profile: the structure as written, its split into titrating parents
 //! and counter-ions, and the sites of each parent.
 
+use super::estimate::estimate_sites;
 use super::group::Kind;
 use super::handbook::Handbook;
-use super::estimate::estimate_sites;
 use super::sites::Site;
 use crate::chem::components::{Compound, split};
 use crate::chem::molecule::Molecule;

@@ -123,7 +123,9 @@ impl SeriesRow {
         };
         let attenuation = match (constant, self.attenuation) {
             (Constant::Taft, Some(a)) if a > 0.0 && a < 1.0 => a,
-            (Constant::Taft, _) => return Err(bad("a taft series needs 0 < attenuation < 1".into())),
+            (Constant::Taft, _) => {
+                return Err(bad("a taft series needs 0 < attenuation < 1".into()));
+            }
             (Constant::Hammett, a) => a.unwrap_or(0.0),
         };
         Ok(Series {

@@ -43,6 +43,7 @@ pub fn correct(mol: &Molecule, site: usize, series: &Series, look: &Lookup) -> C
             shift: -series.rho * sigma,
             ortho: false,
             stand_in: false,
+            inductive: None,
         });
     }
     c
@@ -52,9 +53,9 @@ pub fn correct(mol: &Molecule, site: usize, series: &Series, look: &Lookup) -> C
 fn centre_atom(mol: &Molecule, site: usize) -> usize {
     if matches!(mol.atoms[site].element, 8 | 16)
         && let [(c, _)] = mol.adjacency[site][..]
-        && mol.adjacency[c]
-            .iter()
-            .any(|&(x, b)| x != site && mol.bonds[b].order == Order::Double && mol.atoms[x].element != 6)
+        && mol.adjacency[c].iter().any(|&(x, b)| {
+            x != site && mol.bonds[b].order == Order::Double && mol.atoms[x].element != 6
+        })
     {
         return c;
     }

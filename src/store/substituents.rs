@@ -16,6 +16,9 @@ pub const SUBSTITUENTS_CSV: &str = include_str!("../../data/substituents.csv");
 /// `data/series.csv`: rho and base value per linear free-energy series, with sources.
 pub const SERIES_CSV: &str = include_str!("../../data/series.csv");
 
+/// A group's series name and parent SMILES, where its row gives them.
+pub type GroupLink = (Option<String>, Option<String>);
+
 /// The series columns of `data/groups.csv` (the rest is read by `builtin`).
 #[derive(Debug, Deserialize)]
 struct GroupSeriesRow {
@@ -43,11 +46,22 @@ pub fn refresh(tx: &Transaction) -> Result<()> {
         "INSERT INTO builtin_substituents (priority, name, smarts, position, sigma_m, sigma_p,
          sigma_minus, sigma_o, sigma_star, source) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10)",
     )?;
-    for (i, row) in reader(SUBSTITUENTS_CSV).deserialize::<SubstituentRow>().enumerate() {
+    for (i, row) in reader(SUBSTITUENTS_CSV)
+        .deserialize::<SubstituentRow>()
+        .enumerate()
+    {
         let s = row.map_err(csv_error("substituents.csv"))?;
         insert.execute(params![
-            i as i64, s.name, s.smarts, s.position, s.sigma_m, s.sigma_p, s.sigma_minus,
-            s.sigma_o, s.sigma_star, s.source
+            i as i64,
+            s.name,
+            s.smarts,
+            s.position,
+            s.sigma_m,
+            s.sigma_p,
+            s.sigma_minus,
+            s.sigma_o,
+            s.sigma_star,
+            s.source
         ])?;
     }
     let mut insert = tx.prepare(
@@ -57,10 +71,18 @@ pub fn refresh(tx: &Transaction) -> Result<()> {
     for row in reader(SERIES_CSV).deserialize::<SeriesRow>() {
         let s = row.map_err(csv_error("series.csv"))?;
         insert.execute(params![
-            s.name, s.constant, s.rho, s.base, s.para, s.ortho_shift, s.attenuation, s.source
+            s.name,
+            s.constant,
+            s.rho,
+            s.base,
+            s.para,
+            s.ortho_shift,
+            s.attenuation,
+            s.source
         ])?;
     }
-    let mut update = tx.prepare("UPDATE builtin_groups SET series = ?1, parent = ?2 WHERE name = ?3")?;
+    let mut update =
+        tx.prepare("UPDATE builtin_groups SET series = ?1, parent = ?2 WHERE name = ?3")?;
     for row in reader(super::builtin::GROUPS_CSV).deserialize::<GroupSeriesRow>() {
         let g = row.map_err(csv_error("groups.csv"))?;
         update.execute(params![g.series, g.parent, g.name])?;
@@ -113,7 +135,7 @@ impl Store {
     }
 
     /// Per group name: its series and parent SMILES, where the row names them.
-    pub fn group_series(&self) -> Result<HashMap<String, (Option<String>, Option<String>)>> {
+    pub fn group_series(&self) -> Result<HashMap<String, GroupLink>> {
         let mut stmt = self
             .connection()
             .prepare("SELECT name, series, parent FROM builtin_groups")?;
@@ -144,7 +166,10 @@ mod tests {
         let names: Vec<&str> = series.iter().map(|s| s.name.as_str()).collect();
         for (group, (s, _)) in store.group_series().unwrap() {
             if let Some(s) = s {
-                assert!(names.contains(&s.as_str()), "group '{group}' names series '{s}'");
+                assert!(
+                    names.contains(&s.as_str()),
+                    "group '{group}' names series '{s}'"
+                );
             }
         }
     }

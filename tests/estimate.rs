@@ -1,0 +1,399 @@
+//! The corrected pKa estimate against handbook values of compounds that are not group parents:
+//! each case names its source and must land within a stated tolerance and inside the reported
+//! range. Values are recalled from the named handbooks ("from memory").
+
+use phdose::acidity::{Handbook, Kind, Profile, Site};
+
+/// SMILES, kind, handbook pKa, tolerance, source.
+type Case = (&'static str, Kind, f64, f64, &'static str);
+
+const HAMMETT: &[Case] = &[
+    (
+        "OC(=O)c1ccc([N+](=O)[O-])cc1",
+        Kind::Acid,
+        3.44,
+        0.3,
+        "4-nitrobenzoic acid; Serjeant & Dempsey 1979 (from memory)",
+    ),
+    (
+        "OC(=O)c1cccc([N+](=O)[O-])c1",
+        Kind::Acid,
+        3.45,
+        0.3,
+        "3-nitrobenzoic acid; Serjeant & Dempsey 1979 (from memory)",
+    ),
+    (
+        "OC(=O)c1ccc(Cl)cc1",
+        Kind::Acid,
+        3.98,
+        0.3,
+        "4-chlorobenzoic acid; Serjeant & Dempsey 1979 (from memory)",
+    ),
+    (
+        "OC(=O)c1ccc(OC)cc1",
+        Kind::Acid,
+        4.47,
+        0.3,
+        "4-methoxybenzoic acid; Serjeant & Dempsey 1979 (from memory)",
+    ),
+    (
+        "OC(=O)c1ccccc1Cl",
+        Kind::Acid,
+        2.94,
+        0.5,
+        "2-chlorobenzoic acid; Serjeant & Dempsey 1979 (from memory)",
+    ),
+    (
+        "OC(=O)Cc1ccc([N+](=O)[O-])cc1",
+        Kind::Acid,
+        3.85,
+        0.3,
+        "4-nitrophenylacetic acid; Serjeant & Dempsey 1979 (from memory)",
+    ),
+    (
+        "Oc1ccc([N+](=O)[O-])cc1",
+        Kind::Acid,
+        7.15,
+        0.3,
+        "4-nitrophenol; Serjeant & Dempsey 1979 (from memory)",
+    ),
+    (
+        "Oc1cccc([N+](=O)[O-])c1",
+        Kind::Acid,
+        8.36,
+        0.3,
+        "3-nitrophenol; Serjeant & Dempsey 1979 (from memory)",
+    ),
+    (
+        "Oc1ccc(Cl)cc1",
+        Kind::Acid,
+        9.38,
+        0.3,
+        "4-chlorophenol; Serjeant & Dempsey 1979 (from memory)",
+    ),
+    (
+        "Oc1ccc(C)cc1",
+        Kind::Acid,
+        10.26,
+        0.3,
+        "4-methylphenol; Serjeant & Dempsey 1979 (from memory)",
+    ),
+    (
+        "Oc1ccccc1Cl",
+        Kind::Acid,
+        8.55,
+        0.3,
+        "2-chlorophenol; Serjeant & Dempsey 1979 (from memory)",
+    ),
+    (
+        "Sc1ccc(Cl)cc1",
+        Kind::Acid,
+        6.0,
+        0.4,
+        "4-chlorothiophenol 5.9-6.1; Serjeant & Dempsey 1979 (from memory)",
+    ),
+    (
+        "Nc1ccc(Cl)cc1",
+        Kind::Base,
+        4.0,
+        0.3,
+        "4-chloroaniline 3.98; Perrin 1965 (from memory)",
+    ),
+    (
+        "Nc1ccc([N+](=O)[O-])cc1",
+        Kind::Base,
+        1.0,
+        0.4,
+        "4-nitroaniline; Perrin 1965 (from memory)",
+    ),
+    (
+        "Nc1cccc([N+](=O)[O-])c1",
+        Kind::Base,
+        2.47,
+        0.3,
+        "3-nitroaniline; Perrin 1965 (from memory)",
+    ),
+    (
+        "Nc1ccc(C)cc1",
+        Kind::Base,
+        5.08,
+        0.3,
+        "4-methylaniline; Perrin 1965 (from memory)",
+    ),
+    (
+        "Nc1ccc(OC)cc1",
+        Kind::Base,
+        5.34,
+        0.4,
+        "4-methoxyaniline; Perrin 1965 (from memory)",
+    ),
+    (
+        "Clc1ccccn1",
+        Kind::Base,
+        0.72,
+        0.6,
+        "2-chloropyridine; Perrin 1965 (from memory)",
+    ),
+    (
+        "Clc1cccnc1",
+        Kind::Base,
+        2.84,
+        0.4,
+        "3-chloropyridine; Perrin 1965 (from memory)",
+    ),
+    (
+        "Cc1ccncc1",
+        Kind::Base,
+        6.02,
+        0.4,
+        "4-methylpyridine; Perrin 1965 (from memory)",
+    ),
+    (
+        "Cc1cccnc1",
+        Kind::Base,
+        5.68,
+        0.3,
+        "3-methylpyridine; Perrin 1965 (from memory)",
+    ),
+    (
+        "c1cncnc1",
+        Kind::Base,
+        1.3,
+        0.3,
+        "pyrimidine; Perrin 1965 (from memory)",
+    ),
+    (
+        "Nc1ccncn1",
+        Kind::Base,
+        5.71,
+        0.6,
+        "4-aminopyrimidine; Perrin 1965 (from memory)",
+    ),
+    (
+        "NCc1ccc(Cl)cc1",
+        Kind::Base,
+        9.14,
+        0.3,
+        "4-chlorobenzylamine; Perrin 1965 (from memory)",
+    ),
+];
+
+const TAFT: &[Case] = &[
+    (
+        "OC(=O)CCl",
+        Kind::Acid,
+        2.87,
+        0.3,
+        "chloroacetic acid; Serjeant & Dempsey 1979 (from memory)",
+    ),
+    (
+        "OC(=O)C(Cl)Cl",
+        Kind::Acid,
+        1.35,
+        0.5,
+        "dichloroacetic acid; Serjeant & Dempsey 1979 (from memory)",
+    ),
+    (
+        "OC(=O)C(F)(F)F",
+        Kind::Acid,
+        0.5,
+        0.5,
+        "trifluoroacetic acid; Serjeant & Dempsey 1979 (from memory)",
+    ),
+    (
+        "OC(=O)CC",
+        Kind::Acid,
+        4.87,
+        0.3,
+        "propanoic acid; Serjeant & Dempsey 1979 (from memory)",
+    ),
+    (
+        "OC(=O)CCCl",
+        Kind::Acid,
+        4.08,
+        0.4,
+        "3-chloropropanoic acid; Serjeant & Dempsey 1979 (from memory)",
+    ),
+    (
+        "OC(=O)COC",
+        Kind::Acid,
+        3.57,
+        0.4,
+        "methoxyacetic acid; Serjeant & Dempsey 1979 (from memory)",
+    ),
+    (
+        "OC(=O)CC#N",
+        Kind::Acid,
+        2.47,
+        0.4,
+        "cyanoacetic acid; Serjeant & Dempsey 1979 (from memory)",
+    ),
+    (
+        "NCCOC",
+        Kind::Base,
+        9.45,
+        0.5,
+        "2-methoxyethylamine; Perrin 1965 (from memory)",
+    ),
+    (
+        "NCC=C",
+        Kind::Base,
+        9.49,
+        0.4,
+        "allylamine; Perrin 1965 (from memory)",
+    ),
+    (
+        "NCC#C",
+        Kind::Base,
+        8.15,
+        0.5,
+        "propargylamine; Perrin 1965 (from memory)",
+    ),
+    (
+        "CN(C)C",
+        Kind::Base,
+        9.80,
+        0.4,
+        "trimethylamine; Perrin 1965 (from memory)",
+    ),
+    (
+        "CCN(CC)CCO",
+        Kind::Base,
+        9.87,
+        0.6,
+        "2-diethylaminoethanol; Perrin 1965 (from memory)",
+    ),
+    (
+        "OCCS",
+        Kind::Acid,
+        9.72,
+        0.4,
+        "2-mercaptoethanol; Serjeant & Dempsey 1979 (from memory)",
+    ),
+];
+
+/// Strong electron-withdrawing groups on the alpha carbon of an ammonium ion: the Taft
+/// equations (fitted mostly on beta substituents) under-correct them by 1-1.5 units. Kept as a
+/// measured limit: the estimate must still fall on the right side and within 1.6.
+const TAFT_ALPHA_LIMITS: &[Case] = &[
+    (
+        "NCC(F)(F)F",
+        Kind::Base,
+        5.7,
+        1.6,
+        "2,2,2-trifluoroethylamine; Perrin 1965 (from memory)",
+    ),
+    (
+        "NCC#N",
+        Kind::Base,
+        5.34,
+        1.6,
+        "aminoacetonitrile; Perrin 1965 (from memory)",
+    ),
+    (
+        "CN(C)CC#N",
+        Kind::Base,
+        4.2,
+        1.6,
+        "dimethylaminoacetonitrile; Perrin 1965 (from memory)",
+    ),
+];
+
+fn main_site(smiles: &str, kind: Kind) -> Site {
+    let hb = Handbook::builtin().unwrap();
+    let p = Profile::new(smiles, &hb).unwrap_or_else(|e| panic!("{smiles}: {e}"));
+    let mut sites: Vec<Site> = p.sites.into_iter().filter(|s| s.kind == kind).collect();
+    sites.sort_by(|a, b| a.pka.total_cmp(&b.pka));
+    let site = match kind {
+        Kind::Acid => sites.first(),
+        Kind::Base => sites.last(),
+    };
+    site.cloned()
+        .unwrap_or_else(|| panic!("{smiles}: no {} site", kind.as_str()))
+}
+
+fn check(cases: &[Case]) {
+    let mut failures = Vec::new();
+    for &(smiles, kind, measured, tolerance, source) in cases {
+        let s = main_site(smiles, kind);
+        let inside = s.pka_low <= measured && measured <= s.pka_high;
+        if (s.pka - measured).abs() > tolerance || !inside {
+            failures.push(format!(
+                "{smiles}: estimate {:.2} [{:.2}, {:.2}] vs {measured} ({source}); {}",
+                s.pka, s.pka_low, s.pka_high, s.source
+            ));
+        }
+        assert!(s.source.starts_with("estimate: "), "{smiles}: {}", s.source);
+    }
+    assert!(failures.is_empty(), "{}", failures.join("\n"));
+}
+
+#[test]
+fn hammett_series_reproduce_substituted_aromatics() {
+    check(HAMMETT);
+}
+
+#[test]
+fn taft_equations_reproduce_substituted_aliphatics() {
+    check(TAFT);
+}
+
+#[test]
+fn alpha_withdrawing_amines_stay_within_the_known_limit() {
+    for &(smiles, kind, measured, tolerance, source) in TAFT_ALPHA_LIMITS {
+        let s = main_site(smiles, kind);
+        assert!(
+            (s.pka - measured).abs() <= tolerance,
+            "{smiles}: {:.2} vs {measured} ({source})",
+            s.pka
+        );
+        // Well below the unsubstituted amine (primary 10.6, tertiary 9.8-10.8).
+        assert!(s.pka < 7.5, "{smiles}: {:.2}", s.pka);
+    }
+}
+
+#[test]
+fn the_source_names_the_correction() {
+    let s = main_site("Oc1ccc([N+](=O)[O-])cc1", Kind::Acid);
+    assert!(
+        s.source.contains("Hammett") && s.source.contains("p-nitro"),
+        "{}",
+        s.source
+    );
+    let s = main_site("OC(=O)CCl", Kind::Acid);
+    assert!(s.source.contains("Taft"), "{}", s.source);
+}
+
+#[test]
+fn summed_corrections_widen_the_range() {
+    // One nitro group against three substituents: the range must grow with the terms.
+    let one = main_site("Oc1ccc([N+](=O)[O-])cc1", Kind::Acid);
+    let three = main_site("Oc1c(Cl)cc([N+](=O)[O-])cc1Cl", Kind::Acid);
+    assert!(three.pka_high - three.pka_low > one.pka_high - one.pka_low);
+}
+
+#[test]
+fn phosphoric_acid_has_three_constants() {
+    // Phosphoric acid 2.15, 7.20, 12.35; Serjeant & Dempsey 1979 (from memory).
+    let hb = Handbook::builtin().unwrap();
+    let mut pkas: Vec<f64> = Profile::new("OP(=O)(O)O", &hb)
+        .unwrap()
+        .sites
+        .iter()
+        .map(|s| s.pka)
+        .collect();
+    pkas.sort_by(f64::total_cmp);
+    assert_eq!(pkas, vec![2.15, 7.20, 12.3]);
+}
+
+#[test]
+fn non_titrating_groups_are_never_sites() {
+    // Amides, nitriles, alcohols, ethers do not titrate in water (common practice).
+    let hb = Handbook::builtin().unwrap();
+    for smiles in ["CC(=O)N", "CC#N", "CCO", "COC", "c1ccccc1C(=O)N(C)C"] {
+        assert!(
+            Profile::new(smiles, &hb).unwrap().sites.is_empty(),
+            "{smiles}"
+        );
+    }
+}
