@@ -259,7 +259,7 @@ fn table(
             for c in compounds {
                 let p = c.at(ph);
                 row.push(if o.charge {
-                    format!("{:+.3}", p.mean_charge).replace("-0.000", "0.000")
+                    ionization::signed(p.mean_charge, 3)
                 } else {
                     format!("{:.3}", p.fraction_ionized)
                 });

@@ -9,7 +9,7 @@ use serde::Serialize;
 
 use super::plot::{Band, Callout, Chart, LegendEntry, Mark, Panel, Series};
 use crate::acidity::{Kind, Profile};
-use crate::equilibrium::Protolyte;
+use crate::equilibrium::{Protolyte, SoluteState};
 
 /// One compound as the curves see it.
 #[derive(Debug, Clone)]
@@ -53,10 +53,24 @@ impl Compound {
     /// neutral fraction is their mean, the charge their sum per formula unit.
     pub fn at(&self, ph: f64) -> Point {
         let states: Vec<_> = self.protolytes.iter().map(|p| p.state(ph)).collect();
+        // A parent with a permanent charge (a quaternary ammonium, a betaine) has no
+        // all-neutral form at any pH: nothing of it is extractable (design §3).
+        let neutral = |(p, s): (&Protolyte, &SoluteState)| {
+            if p.fixed_charge != 0.0 {
+                0.0
+            } else {
+                s.fraction_neutral
+            }
+        };
         let fraction_neutral = if states.is_empty() {
             1.0
         } else {
-            states.iter().map(|s| s.fraction_neutral).sum::<f64>() / states.len() as f64
+            self.protolytes
+                .iter()
+                .zip(&states)
+                .map(neutral)
+                .sum::<f64>()
+                / states.len() as f64
         };
         Point {
             ph,
@@ -162,6 +176,16 @@ pub fn short_label(smiles: &str) -> String {
         smiles.to_string()
     } else {
         smiles.chars().take(MAX - 1).collect::<String>() + "\u{2026}"
+    }
+}
+
+/// A charge with its sign (`+1.00`, `-0.25`), and a bare zero when it rounds to nothing.
+pub fn signed(charge: f64, decimals: usize) -> String {
+    let text = format!("{charge:+.decimals$}");
+    if text[1..].chars().all(|c| c == '0' || c == '.') {
+        text[1..].to_string()
+    } else {
+        text
     }
 }
 
@@ -322,13 +346,16 @@ fn logd_panel(compounds: &[Compound], samples: &[Vec<Point>]) -> Option<Panel> {
 }
 
 fn legend_text(c: &Compound) -> String {
-    let sites: Vec<String> = c
-        .sites
+    let mut sites = c.sites.clone();
+    sites.sort_by(|a, b| a.1.total_cmp(&b.1));
+    let sites: Vec<String> = sites
         .iter()
         .map(|(k, pka)| format!("{} {}", k.as_str(), pka_text(*pka)))
         .collect();
     let mut text = c.smiles.clone();
-    text += if sites.is_empty() {
+    text += if sites.is_empty() && c.at(7.0).fraction_neutral == 0.0 {
+        "  \u{2014} permanently charged".to_string()
+    } else if sites.is_empty() {
         "  \u{2014} no ionizable site".to_string()
     } else {
         format!("  \u{2014} pKa: {}", sites.join(", "))
@@ -374,15 +401,17 @@ fn notes(compounds: &[Compound], contrast: Option<Contrast>, o: &Options) -> Vec
             .iter()
             .map(|c| {
                 let p = c.at(ph);
-                format!(
-                    "{} {:.1} %",
-                    short_label(&c.smiles),
-                    p.fraction_ionized * 100.0
-                )
+                let label = short_label(&c.smiles);
+                if o.charge {
+                    format!("{label} {}", signed(p.mean_charge, 2))
+                } else {
+                    format!("{label} {:.1} %", p.fraction_ionized * 100.0)
+                }
             })
             .collect();
+        let what = if o.charge { "mean charge" } else { "ionized" };
         notes.push(format!(
-            "At pH {}, ionized: {}.",
+            "At pH {}, {what}: {}.",
             pka_text(ph),
             values.join("; ")
         ));
@@ -428,6 +457,24 @@ mod tests {
             assert_eq!(c.at(ph).fraction_ionized, 0.0);
             assert_eq!(c.at(ph).logd, Some(2.0));
         }
+    }
+
+    #[test]
+    fn a_quaternary_ammonium_is_ionized_at_every_ph() {
+        // Tetramethylammonium carries its charge on a carbon-only nitrogen: no proton to lose.
+        let c = compound("C[N+](C)(C)C", Some(-2.0));
+        for ph in [0.0, 7.0, 14.0] {
+            let p = c.at(ph);
+            assert_eq!((p.fraction_ionized, p.mean_charge), (1.0, 1.0));
+        }
+    }
+
+    #[test]
+    fn charges_carry_a_sign_but_zero_does_not() {
+        assert_eq!(signed(1.0, 2), "+1.00");
+        assert_eq!(signed(-0.254, 2), "-0.25");
+        assert_eq!(signed(-0.0001, 3), "0.000");
+        assert_eq!(signed(0.0004, 3), "0.000");
     }
 
     #[test]

@@ -43,6 +43,11 @@ pub(super) fn draw_panel_series(s: &mut Svg, panel: &Panel, f: &Frame) {
             ends.push((f.px(x), f.py(y), k));
         }
     }
+    // Every labelled point is an obstacle for every label, so close pKa values of two
+    // curves do not write over each other's points.
+    for c in panel.series.iter().flat_map(|s| &s.callouts) {
+        taken.push((f.px(c.x) - 6.0, f.py(c.y) + 6.0, 12.0, 12.0));
+    }
     for series in &panel.series {
         for c in &series.callouts {
             draw_callout(s, series, c, f, &mut taken);
