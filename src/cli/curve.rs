@@ -6,7 +6,8 @@ use std::path::PathBuf;
 use serde::Serialize;
 
 use super::{Cli, Format, open_store};
-use crate::acidity::{Handbook, Kind, Profile};
+use crate::acidity::interplay::SiteConstant;
+use crate::acidity::{Handbook, Profile};
 use crate::error::{Error, ParseError, Result};
 use crate::report::ionization::{self, Compound, Contrast, Options, Point};
 use crate::report::{self, sig};
@@ -50,18 +51,13 @@ pub struct Args {
     pub estimate_only: bool,
 }
 
-/// One site as the JSON shows it.
-#[derive(Debug, Serialize)]
-pub struct SiteOut {
-    pub kind: Kind,
-    pub pka: f64,
-}
-
 /// One compound with its curve on the table grid (JSON).
 #[derive(Debug, Serialize)]
 pub struct CurveOut {
     pub smiles: String,
-    pub sites: Vec<SiteOut>,
+    /// Per site: `atom`, `kind`, `pka_micro`, `pka_in_molecule` (as `phdose pka` gives them).
+    pub sites: Vec<SiteConstant>,
+    pub macro_pka: Vec<f64>,
     pub logp: Option<f64>,
     pub points: Vec<Point>,
 }
@@ -195,11 +191,8 @@ fn document(
             .iter()
             .map(|c| CurveOut {
                 smiles: c.smiles.clone(),
-                sites: c
-                    .sites
-                    .iter()
-                    .map(|&(kind, pka)| SiteOut { kind, pka })
-                    .collect(),
+                sites: c.constants.clone(),
+                macro_pka: c.macro_pka.clone(),
                 logp: c.logp,
                 points: phs.iter().map(|&ph| c.at(ph)).collect(),
             })

@@ -8,6 +8,7 @@
 use serde::Serialize;
 
 use super::plot::{Band, Callout, Chart, LegendEntry, Mark, Panel, Series};
+use crate::acidity::interplay::SiteConstant;
 use crate::acidity::{Kind, Profile};
 use crate::equilibrium::{Protolyte, SoluteState};
 
@@ -16,8 +17,14 @@ use crate::equilibrium::{Protolyte, SoluteState};
 pub struct Compound {
     /// The SMILES exactly as the user gave it.
     pub smiles: String,
-    /// Each site's kind and pKa, in atom order.
+    /// Each site's kind and the pKa it shows in this molecule (the pH where it is half
+    /// ionized, other sites free to titrate; the site's own estimate when that is undefined),
+    /// in atom order.
     pub sites: Vec<(Kind, f64)>,
+    /// Each site's constants as `phdose pka` reports them.
+    pub constants: Vec<SiteConstant>,
+    /// Macroscopic pKa values, ascending.
+    pub macro_pka: Vec<f64>,
     /// Octanol/water logP of the neutral form, when known.
     pub logp: Option<f64>,
     /// One protolyte per titrating parent (a salt's counter-ions do not count).
@@ -41,9 +48,16 @@ impl Compound {
     pub fn new(profile: &Profile, logp: Option<f64>) -> Compound {
         // Fractions do not depend on the amount; one mole keeps the numbers plain.
         let (protolytes, _, _) = profile.protolytes(1.0);
+        let constants = profile.constants();
         Compound {
             smiles: profile.smiles.clone(),
-            sites: profile.sites.iter().map(|s| (s.kind, s.pka)).collect(),
+            sites: constants
+                .sites
+                .iter()
+                .map(|s| (s.kind, s.pka_in_molecule.unwrap_or(s.pka_micro)))
+                .collect(),
+            constants: constants.sites,
+            macro_pka: constants.macro_pka,
             logp,
             protolytes,
         }
@@ -275,15 +289,7 @@ fn upper_panel(compounds: &[Compound], samples: &[Vec<Point>], o: &Options) -> P
             label: short_label(&c.smiles),
             look: i,
             points: pts.iter().map(|p| (p.ph, value(p))).collect(),
-            callouts: c
-                .sites
-                .iter()
-                .map(|&(_, pka)| Callout {
-                    x: pka,
-                    y: value(&c.at(pka)),
-                    text: format!("pKa {}", pka_text(pka)),
-                })
-                .collect(),
+            callouts: callouts(c, &value),
         })
         .collect();
     let (y_min, y_max, y_label) = if o.charge {
@@ -302,6 +308,31 @@ fn upper_panel(compounds: &[Compound], samples: &[Vec<Point>], o: &Options) -> P
         height: 300.0,
         series,
     }
+}
+
+/// One label per distinct pKa on the curve: symmetric sites (both acids of succinic acid)
+/// titrate at one pH and share a label that says how many they are.
+fn callouts(c: &Compound, value: &dyn Fn(&Point) -> f64) -> Vec<Callout> {
+    let mut pkas: Vec<f64> = c.sites.iter().map(|s| s.1).collect();
+    pkas.sort_by(f64::total_cmp);
+    let mut out: Vec<(f64, usize)> = Vec::new();
+    for pka in pkas {
+        match out.last_mut() {
+            Some((p, n)) if (pka - *p).abs() < 0.005 => *n += 1,
+            _ => out.push((pka, 1)),
+        }
+    }
+    out.into_iter()
+        .map(|(pka, n)| Callout {
+            x: pka,
+            y: value(&c.at(pka)),
+            text: if n == 1 {
+                format!("pKa {}", pka_text(pka))
+            } else {
+                format!("pKa {} ({n} sites)", pka_text(pka))
+            },
+        })
+        .collect()
 }
 
 /// logD panel, or `None` when no compound has a logP. The range reaches 12 units below the
@@ -361,6 +392,10 @@ fn legend_text(c: &Compound) -> String {
         format!("  \u{2014} pKa: {}", sites.join(", "))
     }
     .as_str();
+    if c.macro_pka.len() > 1 {
+        let macros: Vec<String> = c.macro_pka.iter().map(|p| pka_text(*p)).collect();
+        text += &format!(" (macroscopic {})", macros.join(", "));
+    }
     if let Some(logp) = c.logp {
         text += &format!("; logP {logp:.2}");
     }
@@ -457,6 +492,17 @@ mod tests {
             assert_eq!(c.at(ph).fraction_ionized, 0.0);
             assert_eq!(c.at(ph).logd, Some(2.0));
         }
+    }
+
+    #[test]
+    fn a_diacid_labels_its_sites_where_they_titrate_in_the_molecule() {
+        // Succinic acid: the two carboxylic acids interact, so the second proton comes off
+        // later than the first (handbook 4.2 and 5.6, common practice). The labels follow the
+        // interplay model, not the one-group estimate repeated twice.
+        let c = compound("OC(=O)CCC(=O)O", None);
+        assert_eq!(c.sites.len(), 2);
+        assert_eq!(c.macro_pka.len(), 2);
+        assert!(c.macro_pka[1] - c.macro_pka[0] > 0.3, "{:?}", c.macro_pka);
     }
 
     #[test]
