@@ -138,7 +138,11 @@ mod tests {
         assert_relative_eq!(fraction_aqueous(9.0, 50.0, 50.0), 0.1, epsilon = 1e-15);
         assert_relative_eq!(fraction_organic(9.0, 50.0, 50.0), 0.9, epsilon = 1e-15);
         // Halving the organic volume: 1/(1 + 9·25/50) = 1/5.5.
-        assert_relative_eq!(fraction_aqueous(9.0, 25.0, 50.0), 1.0 / 5.5, epsilon = 1e-15);
+        assert_relative_eq!(
+            fraction_aqueous(9.0, 25.0, 50.0),
+            1.0 / 5.5,
+            epsilon = 1e-15
+        );
     }
 
     /// Three extractions with a third of the solvent each beat one with all of it

@@ -138,10 +138,9 @@ fn load() -> std::result::Result<Vec<Solvent>, String> {
             let relation = match r.relation.as_str() {
                 "octanol" => None,
                 "collander" => match (r.donor_a, r.donor_b, r.acceptor_a, r.acceptor_b) {
-                    (Some(da), Some(db), Some(aa), Some(ab)) => Some((
-                        Collander { a: da, b: db },
-                        Collander { a: aa, b: ab },
-                    )),
+                    (Some(da), Some(db), Some(aa), Some(ab)) => {
+                        Some((Collander { a: da, b: db }, Collander { a: aa, b: ab }))
+                    }
                     _ => return Err(format!("{}: collander row without its fits", r.name)),
                 },
                 other => return Err(format!("{}: unknown relation `{other}`", r.name)),
