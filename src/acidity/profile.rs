@@ -69,6 +69,7 @@ impl Profile {
                     })
                     .collect();
                 Protolyte::new(amount_mol, sites, parent.permanent_charge as f64)
+                    .with_couplings(self.parent_couplings(i))
             })
             .collect();
         (
