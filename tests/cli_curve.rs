@@ -124,16 +124,20 @@ fn svg_is_well_formed_with_one_curve_per_compound_its_labels_and_marks() {
     // Inline-ready: no ids to clash with another figure on the same page.
     assert!(doc.descendants().all(|n| n.attribute("id").is_none()));
 
-    // The first panel holds exactly one curve per compound.
-    let panel = doc
+    // Two panels (fraction ionized, then logD: each compound has a neutral parent, so a
+    // logP), and each holds exactly one curve per compound.
+    let panels: Vec<_> = doc
         .descendants()
-        .find(|n| n.attribute("class") == Some("panel"))
-        .expect("a panel group");
-    let curves = panel
-        .descendants()
-        .filter(|n| n.tag_name().name() == "path" && n.attribute("class") == Some("curve"))
-        .count();
-    assert_eq!(curves, given.len());
+        .filter(|n| n.attribute("class") == Some("panel"))
+        .collect();
+    assert_eq!(panels.len(), 2);
+    for panel in &panels {
+        let curves = panel
+            .descendants()
+            .filter(|n| n.tag_name().name() == "path" && n.attribute("class") == Some("curve"))
+            .count();
+        assert_eq!(curves, given.len());
+    }
 
     let texts: Vec<String> = doc
         .descendants()
@@ -152,13 +156,13 @@ fn svg_is_well_formed_with_one_curve_per_compound_its_labels_and_marks() {
         let label = label.trim_end_matches('0').trim_end_matches('.');
         assert!(has(label), "no '{label}' in {texts:?}");
     }
-    // Two marks, each a labelled vertical line across the one panel.
+    // Two marks, each a labelled vertical line across both panels.
     assert!(has("pH 7.4") && has("pH 2"), "{texts:?}");
     let marks: Vec<_> = doc
         .descendants()
         .filter(|n| n.attribute("class") == Some("mark"))
         .collect();
-    assert_eq!(marks.len(), 2);
+    assert_eq!(marks.len(), 2 * panels.len());
     for m in &marks {
         assert_eq!(m.attribute("x1"), m.attribute("x2"), "vertical");
     }
@@ -168,6 +172,7 @@ fn svg_is_well_formed_with_one_curve_per_compound_its_labels_and_marks() {
             .any(|n| n.attribute("class") == Some("band"))
     );
     assert!(has("widest gap"), "{texts:?}");
+    assert!(has("logD (octanol/water)"), "{texts:?}");
 }
 
 #[test]
@@ -182,6 +187,16 @@ fn json_carries_the_smiles_as_given_and_the_widest_gap() {
     assert_eq!(v["compounds"][0]["points"].as_array().unwrap().len(), 15);
     // Acetate and ethylamine: the salt's parent is acetic acid, so below its pKa the amine
     // alone is ionized, and above the amine's pKa the acid alone (common practice).
+    // logD = logP + log10(fraction neutral) (design §3), at every pH of the table.
+    for c in v["compounds"].as_array().unwrap() {
+        let logp = c["logp"].as_f64().expect("a neutral parent has a logP");
+        assert!(c["logp_source"].is_string());
+        for p in c["points"].as_array().unwrap() {
+            let f = p["fraction_neutral"].as_f64().unwrap();
+            let logd = p["logd"].as_f64().unwrap();
+            assert!((logd - (logp + f.log10())).abs() < 1e-9, "{p}");
+        }
+    }
     let gap = &v["widest_gap"];
     assert_eq!(gap["first"], "CC(=O)[O-].[Na+]");
     assert_eq!(gap["second"], "CCN");

@@ -9,6 +9,7 @@ use super::{Cli, Format, open_store};
 use crate::acidity::interplay::SiteConstant;
 use crate::acidity::{Handbook, Profile};
 use crate::error::{Error, ParseError, Result};
+use crate::partition::measured::{OctanolLogP, octanol_log_p};
 use crate::report::ionization::{self, Compound, Contrast, Options, Point};
 use crate::report::{self, sig};
 use crate::units;
@@ -59,6 +60,8 @@ pub struct CurveOut {
     pub sites: Vec<SiteConstant>,
     pub macro_pka: Vec<f64>,
     pub logp: Option<f64>,
+    /// Where `logp` comes from: `measured: <handbook>` or the estimate's method.
+    pub logp_source: Option<String>,
     pub points: Vec<Point>,
 }
 
@@ -138,9 +141,18 @@ fn options(args: &Args) -> Result<(Options, f64)> {
     Ok((o, step))
 }
 
-/// logP of the neutral form. None until a partition model is in the library.
-fn logp_of(_profile: &Profile) -> Option<f64> {
-    None
+/// Octanol/water logP of the neutral parent (a stored handbook value unless
+/// `--estimate-only`, else the Wildman–Crippen estimate); `None` for a mixture of several
+/// parents, whose logD as one curve would mean nothing.
+fn logp_of(profile: &Profile, estimate_only: bool) -> Result<Option<OctanolLogP>> {
+    match profile.compound.parents.as_slice() {
+        [parent] => Ok(Some(octanol_log_p(
+            &profile.compound.neutral,
+            &parent.atoms,
+            estimate_only,
+        )?)),
+        _ => Ok(None),
+    }
 }
 
 /// The table grid: `from`, `from + step`, ... up to `to` (included when it falls on a step).
@@ -155,7 +167,10 @@ pub fn run(args: &Args, cli: &Cli) -> Result<String> {
     let mut compounds = Vec::with_capacity(args.smiles.len());
     for smiles in &args.smiles {
         let profile = Profile::new(smiles, &handbook)?;
-        compounds.push(Compound::new(&profile, logp_of(&profile)));
+        let logp = logp_of(&profile, args.estimate_only)?;
+        let mut compound = Compound::new(&profile, logp.as_ref().map(|l| l.log_p));
+        compound.logp_source = logp.map(|l| l.source);
+        compounds.push(compound);
     }
     let svg_path = match &args.svg {
         Some(path) => {
@@ -194,6 +209,7 @@ fn document(
                 sites: c.constants.clone(),
                 macro_pka: c.macro_pka.clone(),
                 logp: c.logp,
+                logp_source: c.logp_source.clone(),
                 points: phs.iter().map(|&ph| c.at(ph)).collect(),
             })
             .collect(),
@@ -256,8 +272,9 @@ fn table(
                 } else {
                     format!("{:.3}", p.fraction_ionized)
                 });
-                if let Some(logd) = p.logd {
-                    row.push(format!("{logd:.2}"));
+                if c.logp.is_some() {
+                    // No neutral form (a permanent charge): no logD at any pH.
+                    row.push(p.logd.map_or("-".into(), |d| format!("{d:.2}")));
                 }
             }
             row

@@ -27,6 +27,8 @@ pub struct Compound {
     pub macro_pka: Vec<f64>,
     /// Octanol/water logP of the neutral form, when known.
     pub logp: Option<f64>,
+    /// Where `logp` comes from (`measured: ...` or the estimate's method).
+    pub logp_source: Option<String>,
     /// One protolyte per titrating parent (a salt's counter-ions do not count).
     protolytes: Vec<Protolyte>,
 }
@@ -39,7 +41,7 @@ pub struct Point {
     pub fraction_neutral: f64,
     /// Mean charge per formula unit of the parents, fixed charges included.
     pub mean_charge: f64,
-    /// logP + log10(fraction_neutral); `None` without a logP.
+    /// logP + log10(fraction_neutral); `None` without a logP or without a neutral form.
     pub logd: Option<f64>,
 }
 
@@ -59,6 +61,7 @@ impl Compound {
             constants: constants.sites,
             macro_pka: constants.macro_pka,
             logp,
+            logp_source: None,
             protolytes,
         }
     }
@@ -93,7 +96,8 @@ impl Compound {
             mean_charge: states.iter().map(|s| s.mean_charge).sum(),
             logd: self
                 .logp
-                .map(|logp| logp + fraction_neutral.max(f64::MIN_POSITIVE).log10()),
+                .filter(|_| fraction_neutral > 0.0)
+                .map(|logp| logp + fraction_neutral.log10()),
         }
     }
 }
@@ -396,8 +400,15 @@ fn legend_text(c: &Compound) -> String {
         let macros: Vec<String> = c.macro_pka.iter().map(|p| pka_text(*p)).collect();
         text += &format!(" (macroscopic {})", macros.join(", "));
     }
-    if let Some(logp) = c.logp {
-        text += &format!("; logP {logp:.2}");
+    if c.at(7.0).fraction_neutral == 0.0 {
+        text += "; no neutral form, so no logD";
+    } else if let Some(logp) = c.logp {
+        let how = match &c.logp_source {
+            Some(src) if src.starts_with("measured") => " (measured)",
+            Some(_) => " (estimate)",
+            None => "",
+        };
+        text += &format!("; logP {logp:.2}{how}");
     }
     text
 }
