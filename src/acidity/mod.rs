@@ -4,6 +4,7 @@ pub mod estimate;
 pub mod group;
 pub mod hammett;
 pub mod handbook;
+pub mod interplay;
 pub mod lookup;
 pub mod profile;
 pub mod sites;
