@@ -183,3 +183,16 @@ fn pka_json_reports_macro_and_site_constants() {
     assert!(((m[1] - m[0]) - (9.93 - 6.85)).abs() < 0.5, "{m:?}");
     assert_eq!(r["site_constants"].as_array().unwrap().len(), 2);
 }
+
+#[test]
+fn phosphoric_acid_keeps_its_three_handbook_constants() {
+    // Phosphoric acid 2.15, 7.20, 12.35 (Serjeant & Dempsey 1979, from memory). The group table
+    // gives its hydroxyls as successive constants, so the site coupling must not add the
+    // charge repulsion a second time.
+    let macros = profile("OP(=O)(O)O").constants().macro_pka;
+    let expected = [2.15, 7.20, 12.35];
+    assert_eq!(macros.len(), 3, "{macros:?}");
+    for (got, want) in macros.iter().zip(expected) {
+        assert!((got - want).abs() < 0.2, "{macros:?}");
+    }
+}

@@ -143,7 +143,10 @@ pub fn couplings(mol: &Molecule, atoms: &[(usize, Kind)]) -> Result<Vec<Coupling
             let Some(Some((d, _))) = all.get(b) else {
                 continue;
             };
-            if *d == 0 {
+            // Hydroxyls on one central atom (phosphoric, phosphonic acids) carry their
+            // successive constants in the group table already; coupling them again would count
+            // the repulsion twice.
+            if *d == 0 || (*d == 2 && geminal_hydroxyls(mol, a, b)) {
                 continue;
             }
             let paths = match saturated[b] {
@@ -158,6 +161,16 @@ pub fn couplings(mol: &Molecule, atoms: &[(usize, Kind)]) -> Result<Vec<Coupling
         }
     }
     Ok(out)
+}
+
+/// Whether `a` and `b` are oxygens bonded to the same central atom (O-X-O).
+fn geminal_hydroxyls(mol: &Molecule, a: usize, b: usize) -> bool {
+    const OXYGEN: u8 = 8;
+    mol.atoms[a].element == OXYGEN
+        && mol.atoms[b].element == OXYGEN
+        && mol.adjacency[a]
+            .iter()
+            .any(|&(x, _)| mol.adjacency[b].iter().any(|&(y, _)| x == y))
 }
 
 /// One site's constants.
