@@ -21,7 +21,9 @@ pub const MIGRATIONS: &[(u32, &str, &str)] = &[
     ),
 ];
 
-/// Applies every migration newer than the store's recorded version. Returns how many ran.
+/// Applies, in order, every migration the store has not recorded (by version, not by the
+/// highest number, so a migration numbered below one already applied still runs). Returns how
+/// many ran.
 pub fn migrate(conn: &mut Connection) -> Result<usize> {
     conn.execute_batch(
         "CREATE TABLE IF NOT EXISTS schema_migrations (
@@ -30,21 +32,21 @@ pub fn migrate(conn: &mut Connection) -> Result<usize> {
              applied_at TEXT NOT NULL DEFAULT (datetime('now'))
          );",
     )?;
-    let current: u32 = conn.query_row(
-        "SELECT COALESCE(MAX(version), 0) FROM schema_migrations",
-        [],
-        |row| row.get(0),
-    )?;
+    let recorded: Vec<u32> = conn
+        .prepare("SELECT version FROM schema_migrations")?
+        .query_map([], |row| row.get(0))?
+        .collect::<std::result::Result<_, _>>()?;
+    let newest = recorded.iter().copied().max().unwrap_or(0);
     if let Some(&(latest, _, _)) = MIGRATIONS.last()
-        && current > latest
+        && newest > latest
     {
         return Err(Error::Store(format!(
-            "the store was written by a newer phdose (schema version {current}, this program \
+            "the store was written by a newer phdose (schema version {newest}, this program \
              knows {latest}); use that version or another --db file"
         )));
     }
     let mut applied = 0;
-    for &(version, name, sql) in MIGRATIONS.iter().filter(|m| m.0 > current) {
+    for &(version, name, sql) in MIGRATIONS.iter().filter(|m| !recorded.contains(&m.0)) {
         let tx = conn.transaction()?;
         tx.execute_batch(sql)
             .map_err(|e| Error::Store(format!("migration {version:04}_{name} failed: {e}")))?;
