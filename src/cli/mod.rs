@@ -6,6 +6,7 @@ pub mod demo;
 pub mod info;
 pub mod input;
 pub mod pka;
+pub mod shell;
 
 use std::path::PathBuf;
 
@@ -16,7 +17,7 @@ use crate::store::{self, Store};
 
 /// phdose: pKa values, aqueous equilibria and reagent amounts for acid-base workups.
 #[derive(Debug, Parser)]
-#[command(name = "phdose", version, about, long_about = None)]
+#[command(name = "phdose", version = shell::long_version(), about, long_about = None)]
 pub struct Cli {
     #[command(subcommand)]
     pub command: Command,
@@ -51,6 +52,10 @@ pub enum Command {
     Adjust(adjust::Args),
     /// A built-in workup scenario, end to end.
     Demo(demo::Args),
+    /// Shell completion script (bash, zsh, fish, powershell, elvish) on standard output.
+    Completions(shell::CompletionArgs),
+    /// The manual page (roff) on standard output.
+    Manpage,
 }
 
 /// Opens the store named by `--db`, `$PHDOSE_DB` or the platform default.
@@ -68,5 +73,7 @@ pub fn run(cli: &Cli) -> Result<String> {
         Command::Pka(args) => pka::run(args, cli),
         Command::Adjust(args) => adjust::run(args, cli),
         Command::Demo(args) => demo::run(args, cli),
+        Command::Completions(args) => shell::completions(args),
+        Command::Manpage => shell::manpage(),
     }
 }
