@@ -23,6 +23,10 @@ use super::elements;
 use super::molecule::Molecule;
 use crate::error::Result;
 
+/// Changes whenever the key of some structure would change; part of the data version, so
+/// stored keys are recomputed after an upgrade.
+pub const KEY_VERSION: &str = "canon-1";
+
 /// Tie-break leaves tried per structure before later ties take their first candidate only
 /// (symmetric atoms give the same string whichever is chosen, so the cap only matters for
 /// rare non-symmetric ties in large, highly regular molecules).
@@ -392,7 +396,8 @@ impl Writer<'_> {
                 self.atom(child);
                 self.out.push(')');
             }
-            self.out.push_str(&bond_symbol(self.g, last_edge, self.style));
+            self.out
+                .push_str(&bond_symbol(self.g, last_edge, self.style));
             atom = last;
         }
     }
@@ -481,7 +486,6 @@ fn bare_is_exact(g: &Graph, i: usize, lower: bool) -> bool {
     }
 }
 
-
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -527,32 +531,128 @@ mod tests {
     /// Common lab compounds, including sets of constitutional isomers (C7H8O, C8H8O2, C4H8O2,
     /// C6H15N, C5H5N+CH3 pyridines ...). Every entry is a different structure.
     const MOLECULES: &[&str] = &[
-        "CC(=O)O", "CCC(=O)O", "CCCC(=O)O", "CC(C)C(=O)O", "COC(=O)CC", "CCOC(=O)C",
-        "OC(=O)c1ccccc1", "Cc1ccccc1C(=O)O", "Cc1cccc(C(=O)O)c1", "Cc1ccc(C(=O)O)cc1",
-        "OC(=O)Cc1ccccc1", "COC(=O)c1ccccc1", "Cc1ccccc1O", "Cc1cccc(O)c1", "Cc1ccc(O)cc1",
-        "OCc1ccccc1", "COc1ccccc1", "Oc1ccccc1", "Oc1ccccc1[N+](=O)[O-]",
-        "Oc1cccc([N+](=O)[O-])c1", "Oc1ccc([N+](=O)[O-])cc1", "OC(=O)c1ccccc1Cl",
-        "OC(=O)c1cccc(Cl)c1", "OC(=O)c1ccc(Cl)cc1", "c1ccncc1", "Cc1ccccn1", "Cc1cccnc1",
-        "Cc1ccncc1", "Nc1ccccc1", "CNc1ccccc1", "Cc1ccccc1N", "Cc1cccc(N)c1", "Cc1ccc(N)cc1",
-        "NCc1ccccc1", "Cc1cccc(C)n1", "Cc1ccnc(C)c1", "Cc1cncc(C)c1", "c1c[nH]cn1",
-        "c1cn[nH]c1", "Cn1ccnc1", "Cc1ncc[nH]1", "Cc1c[nH]cn1", "NCC(=O)O", "CC(N)C(=O)O",
-        "CNCC(=O)O", "NCCC(=O)O", "CC(O)C(=O)O", "OCCC(=O)O", "OC(=O)CCC(=O)O",
-        "CC(C(=O)O)C(=O)O", "OC(=O)C=CC(=O)O", "OC(=O)c1ccccc1C(=O)O",
-        "OC(=O)c1cccc(C(=O)O)c1", "OC(=O)c1ccc(C(=O)O)cc1", "c1ccc2ccccc2c1",
-        "c1ccc2cccc-2cc1", "c1ccc2ncccc2c1", "c1ccc2cnccc2c1", "c1ccc2[nH]ccc2c1",
-        "Oc1cccc2ccccc12", "Oc1ccc2ccccc2c1", "C1COCCN1", "C1CCNCC1", "C1CNCCN1", "CN1CCNCC1",
-        "C1CCNC1", "NC1CCCCC1", "CCN(CC)CC", "CCCCCCN", "CC(C)NC(C)C", "CCCNCCC", "CCO", "COC",
-        "CCCO", "CC(C)O", "CCOC", "CC(C)=O", "CCC=O", "CC1CO1", "c1ccsc1", "c1ccoc1",
-        "c1cc[nH]c1", "Sc1ccccc1", "OS(=O)(=O)c1ccccc1", "Cc1ccc(S(=O)(=O)O)cc1",
-        "CS(N)(=O)=O", "O=C1NS(=O)(=O)c2ccccc21", "O=c1cc[nH]c(=O)[nH]1",
-        "Cc1c[nH]c(=O)[nH]c1=O", "Nc1cc[nH]c(=O)n1", "Nc1ncnc2[nH]cnc12",
-        "Cn1c(=O)c2c(ncn2C)n(C)c1=O", "Cn1c(=O)c2[nH]cnc2n(C)c1=O", "O=C1CC(=O)NC(=O)N1",
-        "CC(=O)CC(C)=O", "CCOC(=O)CC(C)=O", "CC1(C)CC(=O)CC(=O)C1", "CC1(C)OC(=O)CC(=O)O1",
-        "C[N+](=O)[O-]", "CC[N+](=O)[O-]", "CC#N", "CN(C)C=O", "CS(C)=O", "NC(N)=O",
-        "NC(N)=N", "CC(N)=N", "NN", "NO", "OB(O)c1ccccc1", "c1nn[nH]n1", "c1nnn[nH]1",
-        "[13CH3]C(=O)O", "C[N+](C)(C)C", "CC(=O)Nc1ccccc1", "C1CC1", "CC=C",
-        "C1CCC2CCCCC2C1", "C1CCC(CC1)C1CCCC1", "OC(=O)CC(O)(CC(=O)O)C(=O)O",
-        "NC(CCC(=O)O)C(=O)O", "NCCCCC(N)C(=O)O", "OC(=O)C(O)C(O)C(=O)O",
+        "CC(=O)O",
+        "CCC(=O)O",
+        "CCCC(=O)O",
+        "CC(C)C(=O)O",
+        "COC(=O)CC",
+        "CCOC(=O)C",
+        "OC(=O)c1ccccc1",
+        "Cc1ccccc1C(=O)O",
+        "Cc1cccc(C(=O)O)c1",
+        "Cc1ccc(C(=O)O)cc1",
+        "OC(=O)Cc1ccccc1",
+        "COC(=O)c1ccccc1",
+        "Cc1ccccc1O",
+        "Cc1cccc(O)c1",
+        "Cc1ccc(O)cc1",
+        "OCc1ccccc1",
+        "COc1ccccc1",
+        "Oc1ccccc1",
+        "Oc1ccccc1[N+](=O)[O-]",
+        "Oc1cccc([N+](=O)[O-])c1",
+        "Oc1ccc([N+](=O)[O-])cc1",
+        "OC(=O)c1ccccc1Cl",
+        "OC(=O)c1cccc(Cl)c1",
+        "OC(=O)c1ccc(Cl)cc1",
+        "c1ccncc1",
+        "Cc1ccccn1",
+        "Cc1cccnc1",
+        "Cc1ccncc1",
+        "Nc1ccccc1",
+        "CNc1ccccc1",
+        "Cc1ccccc1N",
+        "Cc1cccc(N)c1",
+        "Cc1ccc(N)cc1",
+        "NCc1ccccc1",
+        "Cc1cccc(C)n1",
+        "Cc1ccnc(C)c1",
+        "Cc1cncc(C)c1",
+        "c1c[nH]cn1",
+        "c1cn[nH]c1",
+        "Cn1ccnc1",
+        "Cc1ncc[nH]1",
+        "Cc1c[nH]cn1",
+        "NCC(=O)O",
+        "CC(N)C(=O)O",
+        "CNCC(=O)O",
+        "NCCC(=O)O",
+        "CC(O)C(=O)O",
+        "OCCC(=O)O",
+        "OC(=O)CCC(=O)O",
+        "CC(C(=O)O)C(=O)O",
+        "OC(=O)C=CC(=O)O",
+        "OC(=O)c1ccccc1C(=O)O",
+        "OC(=O)c1cccc(C(=O)O)c1",
+        "OC(=O)c1ccc(C(=O)O)cc1",
+        "c1ccc2ccccc2c1",
+        "c1ccc2cccc-2cc1",
+        "c1ccc2ncccc2c1",
+        "c1ccc2cnccc2c1",
+        "c1ccc2[nH]ccc2c1",
+        "Oc1cccc2ccccc12",
+        "Oc1ccc2ccccc2c1",
+        "C1COCCN1",
+        "C1CCNCC1",
+        "C1CNCCN1",
+        "CN1CCNCC1",
+        "C1CCNC1",
+        "NC1CCCCC1",
+        "CCN(CC)CC",
+        "CCCCCCN",
+        "CC(C)NC(C)C",
+        "CCCNCCC",
+        "CCO",
+        "COC",
+        "CCCO",
+        "CC(C)O",
+        "CCOC",
+        "CC(C)=O",
+        "CCC=O",
+        "CC1CO1",
+        "c1ccsc1",
+        "c1ccoc1",
+        "c1cc[nH]c1",
+        "Sc1ccccc1",
+        "OS(=O)(=O)c1ccccc1",
+        "Cc1ccc(S(=O)(=O)O)cc1",
+        "CS(N)(=O)=O",
+        "O=C1NS(=O)(=O)c2ccccc21",
+        "O=c1cc[nH]c(=O)[nH]1",
+        "Cc1c[nH]c(=O)[nH]c1=O",
+        "Nc1cc[nH]c(=O)n1",
+        "Nc1ncnc2[nH]cnc12",
+        "Cn1c(=O)c2c(ncn2C)n(C)c1=O",
+        "Cn1c(=O)c2[nH]cnc2n(C)c1=O",
+        "O=C1CC(=O)NC(=O)N1",
+        "CC(=O)CC(C)=O",
+        "CCOC(=O)CC(C)=O",
+        "CC1(C)CC(=O)CC(=O)C1",
+        "CC1(C)OC(=O)CC(=O)O1",
+        "C[N+](=O)[O-]",
+        "CC[N+](=O)[O-]",
+        "CC#N",
+        "CN(C)C=O",
+        "CS(C)=O",
+        "NC(N)=O",
+        "NC(N)=N",
+        "CC(N)=N",
+        "NN",
+        "NO",
+        "OB(O)c1ccccc1",
+        "c1nn[nH]n1",
+        "c1nnn[nH]1",
+        "[13CH3]C(=O)O",
+        "C[N+](C)(C)C",
+        "CC(=O)Nc1ccccc1",
+        "C1CC1",
+        "CC=C",
+        "C1CCC2CCCCC2C1",
+        "C1CCC(CC1)C1CCCC1",
+        "OC(=O)CC(O)(CC(=O)O)C(=O)O",
+        "NC(CCC(=O)O)C(=O)O",
+        "NCCCCC(N)C(=O)O",
+        "OC(=O)C(O)C(O)C(=O)O",
     ];
 
     #[test]
@@ -605,14 +705,44 @@ mod tests {
     #[test]
     fn hydrogens_digits_charges_and_salts_do_not_change_the_key() {
         let groups: &[&[&str]] = &[
-            &["Oc1ccccc1", "[OH]c1ccccc1", "[H]Oc1ccccc1", "[O-]c1ccccc1.[Na+]"],
-            &["C1CCCCC1", "C%10CCCCC%10", "C2CCCCC2", "[CH2]1[CH2][CH2][CH2][CH2][CH2]1"],
-            &["CC(=O)O", "CC(=O)[O-].[Na+]", "CC([O-])=O.[K+]", "OC(C)=O", "CC(=O)[O-]"],
+            &[
+                "Oc1ccccc1",
+                "[OH]c1ccccc1",
+                "[H]Oc1ccccc1",
+                "[O-]c1ccccc1.[Na+]",
+            ],
+            &[
+                "C1CCCCC1",
+                "C%10CCCCC%10",
+                "C2CCCCC2",
+                "[CH2]1[CH2][CH2][CH2][CH2][CH2]1",
+            ],
+            &[
+                "CC(=O)O",
+                "CC(=O)[O-].[Na+]",
+                "CC([O-])=O.[K+]",
+                "OC(C)=O",
+                "CC(=O)[O-]",
+            ],
             &["CCN", "CC[NH3+]", "CCN.Cl", "CC[NH3+].[Cl-]", "NCC"],
-            &["NCC(=O)O", "[NH3+]CC(=O)[O-]", "[NH3+]CC(=O)O.[Cl-]", "NCC([O-])=O.[Na+]"],
-            &["c1ccncc1", "c1cc[nH+]cc1.[Cl-]", "c1ccncc1.Cl", "C1=CC=[NH+]C=C1.[Br-]"],
+            &[
+                "NCC(=O)O",
+                "[NH3+]CC(=O)[O-]",
+                "[NH3+]CC(=O)O.[Cl-]",
+                "NCC([O-])=O.[Na+]",
+            ],
+            &[
+                "c1ccncc1",
+                "c1cc[nH+]cc1.[Cl-]",
+                "c1ccncc1.Cl",
+                "C1=CC=[NH+]C=C1.[Br-]",
+            ],
             &["CN(=O)=O", "C[N+](=O)[O-]", "[O-][N+](C)=O"],
-            &["OC(=O)CCC(=O)O", "[O-]C(=O)CCC(=O)[O-].[Na+].[Na+]", "OC(=O)CCC([O-])=O.[K+]"],
+            &[
+                "OC(=O)CCC(=O)O",
+                "[O-]C(=O)CCC(=O)[O-].[Na+].[Na+]",
+                "OC(=O)CCC([O-])=O.[K+]",
+            ],
             &["CCN(CC)CC", "CC[NH+](CC)CC.[Cl-]", "CCN(CC)CC.OS(=O)(=O)O"],
             &["C/C=C/C(=O)O", "C/C=C\\C(=O)O", "CC=CC(=O)O"],
             &["N[C@@H](C)C(=O)O", "N[C@H](C)C(=O)O", "CC(N)C(=O)O"],
@@ -629,7 +759,10 @@ mod tests {
     fn organic_salts_key_both_parents_and_permanent_charges_stay() {
         let salt = key("CC(=O)[O-].CC[NH+](CC)CC").unwrap();
         let parts = [key("CC(=O)O").unwrap(), key("CCN(CC)CC").unwrap()];
-        assert!(salt.split('.').all(|p| parts.contains(&p.to_string())), "{salt}");
+        assert!(
+            salt.split('.').all(|p| parts.contains(&p.to_string())),
+            "{salt}"
+        );
         assert_eq!(key("CC[NH+](CC)CC.CC(=O)[O-]").unwrap(), salt);
         assert_ne!(key("C[N+](C)(C)C.[Cl-]").unwrap(), key("CN(C)C").unwrap());
         assert!(key("C[N+](C)(C)C.[Cl-]").unwrap().contains('+'));
@@ -651,7 +784,11 @@ mod tests {
             let expected = key(smiles).unwrap();
             for _ in 0..10 {
                 let spelled = respell(smiles, &mut rng);
-                assert_eq!(key(&spelled).unwrap(), expected, "{smiles} spelled {spelled}");
+                assert_eq!(
+                    key(&spelled).unwrap(),
+                    expected,
+                    "{smiles} spelled {spelled}"
+                );
             }
         }
     }

@@ -15,7 +15,11 @@ pub fn data_version() -> String {
     format!(
         "{}-{:016x}",
         env!("CARGO_PKG_VERSION"),
-        fnv1a(&[GROUPS_CSV])
+        fnv1a(&[
+            GROUPS_CSV,
+            super::measured::MEASURED_CSV,
+            crate::chem::canon::KEY_VERSION
+        ])
     )
 }
 
@@ -74,6 +78,7 @@ pub fn refresh(conn: &mut Connection) -> Result<()> {
             ])?;
         }
     }
+    super::measured::refresh(&tx)?;
     tx.execute(
         "INSERT INTO store_meta (key, value) VALUES ('data_version', ?1)
          ON CONFLICT(key) DO UPDATE SET value = excluded.value",

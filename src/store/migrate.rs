@@ -8,11 +8,18 @@ use rusqlite::Connection;
 use crate::error::{Error, Result};
 
 /// The embedded migrations, in the order they must be applied.
-pub const MIGRATIONS: &[(u32, &str, &str)] = &[(
-    1,
-    "groups",
-    include_str!("../../migrations/0001_groups.sql"),
-)];
+pub const MIGRATIONS: &[(u32, &str, &str)] = &[
+    (
+        1,
+        "groups",
+        include_str!("../../migrations/0001_groups.sql"),
+    ),
+    (
+        2,
+        "measured",
+        include_str!("../../migrations/0002_measured.sql"),
+    ),
+];
 
 /// Applies every migration newer than the store's recorded version. Returns how many ran.
 pub fn migrate(conn: &mut Connection) -> Result<usize> {
