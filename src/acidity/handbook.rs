@@ -3,6 +3,7 @@
 //! work compiles every SMARTS pattern once.
 
 use super::group::Group;
+use super::measured::MeasuredTable;
 use crate::error::Result;
 use crate::store::Store;
 
@@ -13,6 +14,8 @@ pub struct Handbook {
     pub groups: Vec<Group>,
     /// Skip stored measured values and use the estimates alone (`--estimate-only`).
     pub estimate_only: bool,
+    /// Stored measured constants by structure key (empty with `estimate_only`).
+    pub measured: MeasuredTable,
 }
 
 impl Handbook {
@@ -21,6 +24,11 @@ impl Handbook {
         Ok(Handbook {
             groups: store.groups()?,
             estimate_only,
+            measured: if estimate_only {
+                MeasuredTable::default()
+            } else {
+                MeasuredTable::from_store(store)?
+            },
         })
     }
 

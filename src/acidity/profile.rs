@@ -3,6 +3,7 @@
 
 use super::group::Kind;
 use super::handbook::Handbook;
+use super::measured::Origin;
 use super::sites::{Site, find_sites};
 use crate::chem::components::{Compound, split};
 use crate::chem::molecule::Molecule;
@@ -19,6 +20,10 @@ pub struct Profile {
     pub compound: Compound,
     /// Sites of all parents, by atom index of the written molecule.
     pub sites: Vec<Site>,
+    /// Whether the pKa values are the user's, handbook values or estimates.
+    pub origin: Origin,
+    /// Remarks on how stored values were matched to sites.
+    pub notes: Vec<String>,
 }
 
 impl Profile {
@@ -26,15 +31,19 @@ impl Profile {
     pub fn new(smiles: &str, handbook: &Handbook) -> Result<Profile> {
         let molecule = Molecule::from_smiles(smiles)?;
         let compound = split(&molecule)?;
-        let sites = find_sites(&compound.neutral, &handbook.groups)
+        let mut sites: Vec<Site> = find_sites(&compound.neutral, &handbook.groups)
             .into_iter()
             .filter(|s| compound.parents.iter().any(|p| p.atoms.contains(&s.atom)))
             .collect();
+        // A stored measured value beats the estimate (design §3), unless --estimate-only.
+        let applied = handbook.measured.apply(&compound, &mut sites);
         Ok(Profile {
             smiles: smiles.to_string(),
             molecule,
             compound,
             sites,
+            origin: applied.origin,
+            notes: applied.notes,
         })
     }
 
@@ -109,6 +118,7 @@ impl Profile {
             site.pka_high = v;
             site.source = "given with --pka".into();
         }
+        self.origin = Origin::User;
         Ok(())
     }
 }

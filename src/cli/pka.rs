@@ -6,6 +6,7 @@ use serde::Serialize;
 use tabled::Tabled;
 
 use super::{Cli, Format, input, open_store};
+use crate::acidity::measured::Origin;
 use crate::acidity::{Handbook, Profile, Site};
 use crate::error::{Error, Result};
 use crate::report;
@@ -28,6 +29,11 @@ pub struct Args {
 pub struct PkaResult {
     pub smiles: String,
     pub sites: Vec<Site>,
+    /// `user`, `measured` (built-in handbook row) or `estimate`; `mixed` when the parents of
+    /// one input differ. Each site's `source` names the value it carries.
+    pub origin: Origin,
+    /// How stored values were matched to sites, when that needed saying.
+    pub notes: Vec<String>,
     pub error: Option<String>,
 }
 
@@ -49,6 +55,8 @@ pub fn annotate(smiles: &str, handbook: &Handbook) -> Result<PkaResult> {
     Ok(PkaResult {
         smiles: smiles.to_string(),
         sites: profile.sites,
+        origin: profile.origin,
+        notes: profile.notes,
         error: None,
     })
 }
@@ -87,6 +95,18 @@ fn rows(results: &[PkaResult]) -> Vec<Row> {
     rows
 }
 
+/// Notes printed under the table, one line each, naming the structure.
+fn notes(results: &[PkaResult]) -> String {
+    results
+        .iter()
+        .flat_map(|r| {
+            r.notes
+                .iter()
+                .map(move |n| format!("note: {}: {n}\n", r.smiles))
+        })
+        .collect()
+}
+
 pub fn run(args: &Args, cli: &Cli) -> Result<String> {
     let batch = args.input.is_some();
     let mut list = args.smiles.clone();
@@ -107,12 +127,14 @@ pub fn run(args: &Args, cli: &Cli) -> Result<String> {
             Err(e) => results.push(PkaResult {
                 smiles: smiles.clone(),
                 sites: vec![],
+                origin: Origin::Estimate,
+                notes: vec![],
                 error: Some(e.to_string()),
             }),
         }
     }
     match cli.format {
-        Format::Table => Ok(report::table(&rows(&results))),
+        Format::Table => Ok(report::table(&rows(&results)) + &notes(&results)),
         Format::Csv => report::csv(&rows(&results)),
         Format::Json => report::json(&results),
         Format::Jsonl => report::jsonl(&results),
