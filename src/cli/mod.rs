@@ -2,6 +2,7 @@
 //! holds the shared flags and dispatches.
 
 pub mod adjust;
+pub mod db;
 pub mod demo;
 pub mod info;
 pub mod input;
@@ -52,6 +53,8 @@ pub enum Command {
     Adjust(adjust::Args),
     /// A built-in workup scenario, end to end.
     Demo(demo::Args),
+    /// Your own measured pKa values: add, list, remove, import, export.
+    Db(db::Args),
     /// Shell completion script (bash, zsh, fish, powershell, elvish) on standard output.
     Completions(shell::CompletionArgs),
     /// The manual page (roff) on standard output.
@@ -73,6 +76,7 @@ pub fn run(cli: &Cli) -> Result<String> {
         Command::Pka(args) => pka::run(args, cli),
         Command::Adjust(args) => adjust::run(args, cli),
         Command::Demo(args) => demo::run(args, cli),
+        Command::Db(args) => db::run(args, cli),
         Command::Completions(args) => shell::completions(args),
         Command::Manpage => shell::manpage(),
     }
