@@ -32,8 +32,15 @@ impl Handbook {
         })
     }
 
-    /// The built-in tables only, from a fresh in-memory store (tests, one-off use).
+    /// The built-in group table alone, estimates only, from a fresh in-memory store (tests of
+    /// the estimate, one-off use).
     pub fn builtin() -> Result<Handbook> {
+        Handbook::from_store(&Store::in_memory()?, true)
+    }
+
+    /// The built-in tables with the built-in measured values on (no user values exist in a
+    /// fresh store).
+    pub fn builtin_measured() -> Result<Handbook> {
         Handbook::from_store(&Store::in_memory()?, false)
     }
 }

@@ -373,7 +373,7 @@ impl Writer<'_> {
                 if self.order[nb] < self.order[atom] {
                     // Closing: the partner opened it.
                     let digit = self.digit_of_edge[e].unwrap_or(0);
-                    self.out.push_str(&bond_symbol(self.g, e, self.style));
+                    self.out.push_str(bond_symbol(self.g, e, self.style));
                     self.out.push_str(&digit_label(digit));
                     freed.push(digit);
                 } else {
@@ -392,12 +392,12 @@ impl Writer<'_> {
             };
             for &(child, e) in branches {
                 self.out.push('(');
-                self.out.push_str(&bond_symbol(self.g, e, self.style));
+                self.out.push_str(bond_symbol(self.g, e, self.style));
                 self.atom(child);
                 self.out.push(')');
             }
             self.out
-                .push_str(&bond_symbol(self.g, last_edge, self.style));
+                .push_str(bond_symbol(self.g, last_edge, self.style));
             atom = last;
         }
     }
@@ -509,8 +509,8 @@ mod tests {
         let mol = Molecule::from_smiles(smiles).unwrap();
         let compound = split(&mol).unwrap();
         let style = Style {
-            kekule: rng.next() % 2 == 0,
-            brackets: rng.next() % 3 == 0,
+            kekule: rng.next().is_multiple_of(2),
+            brackets: rng.next().is_multiple_of(3),
             first_digit: 1 + (rng.next() % 12) as usize,
         };
         let parts: Vec<String> = compound
