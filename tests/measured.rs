@@ -131,6 +131,20 @@ fn common_compounds_in_any_spelling_come_out_within_0_3_of_handbook_values() {
 }
 
 #[test]
+fn measured_constants_are_macroscopic_and_not_shifted_again() {
+    // Glycine 2.34 and 9.60 (CRC Handbook amino acid table, from memory) are what a titration
+    // sees; the site interactions are already in them.
+    let handbook = Handbook::builtin_measured().unwrap();
+    let macro_pka = Profile::new("[NH3+]CC([O-])=O", &handbook)
+        .unwrap()
+        .constants()
+        .macro_pka;
+    assert_eq!(macro_pka.len(), 2);
+    assert!((macro_pka[0] - 2.34).abs() < 0.01, "{macro_pka:?}");
+    assert!((macro_pka[1] - 9.60).abs() < 0.01, "{macro_pka:?}");
+}
+
+#[test]
 fn estimate_only_handbook_ignores_the_measured_tables() {
     let store = phdose::store::Store::in_memory().unwrap();
     let handbook = Handbook::from_store(&store, true).unwrap();

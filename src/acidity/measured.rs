@@ -53,6 +53,8 @@ pub struct MeasuredTable {
 #[derive(Debug, Clone, PartialEq)]
 pub struct Applied {
     pub origin: Origin,
+    /// Origin of each parent's values, in `Compound::parents` order.
+    pub parents: Vec<Origin>,
     pub notes: Vec<String>,
 }
 
@@ -117,7 +119,11 @@ impl MeasuredTable {
             Some((first, rest)) if rest.iter().all(|o| o == first) => *first,
             Some(_) => Origin::Mixed,
         };
-        Applied { origin, notes }
+        Applied {
+            origin,
+            parents: origins,
+            notes,
+        }
     }
 }
 

@@ -22,6 +22,9 @@ pub struct Profile {
     pub sites: Vec<Site>,
     /// Whether the pKa values are the user's, handbook values or estimates.
     pub origin: Origin,
+    /// The same per parent: measured constants are macroscopic, so the site interactions of
+    /// `interplay` are not added to them again.
+    pub parent_origins: Vec<Origin>,
     /// Remarks on how stored values were matched to sites.
     pub notes: Vec<String>,
 }
@@ -43,6 +46,7 @@ impl Profile {
             compound,
             sites,
             origin: applied.origin,
+            parent_origins: applied.parents,
             notes: applied.notes,
         })
     }
@@ -78,6 +82,7 @@ impl Profile {
                     })
                     .collect();
                 Protolyte::new(amount_mol, sites, parent.permanent_charge as f64)
+                    .with_couplings(self.parent_couplings(i))
             })
             .collect();
         (

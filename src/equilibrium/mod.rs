@@ -4,6 +4,7 @@
 
 pub mod carbonate;
 pub mod dose;
+pub mod microstates;
 pub mod reagent;
 pub mod solve;
 pub mod species;
@@ -11,6 +12,7 @@ pub mod water;
 
 pub use carbonate::CarbonateSpecies;
 pub use dose::{Dose, dose, dose_with_alternatives, reachable_range};
+pub use microstates::Coupling;
 pub use reagent::{Reagent, Role, Stock, StockForm, StockOffer};
 pub use solve::{Equilibrium, charge_residual, solve_ph};
 pub use species::{Protolyte, Site, SiteKind, SoluteState};
