@@ -104,15 +104,17 @@ impl MeasuredTable {
                 origins.push(Origin::Estimate);
                 continue;
             };
-            origins.push(origin);
+            let mut used = 0;
             for kind in [Kind::Acid, Kind::Base] {
                 let mut own: Vec<&mut Site> = sites
                     .iter_mut()
                     .filter(|s| s.kind == kind && parent.atoms.contains(&s.atom))
                     .collect();
                 let mut values: Vec<&Stored> = stored.iter().filter(|c| c.kind == kind).collect();
-                assign(&mut own, &mut values, kind, &mut notes);
+                used += assign(&mut own, &mut values, kind, &mut notes);
             }
+            // A stored value that found no site to sit on leaves the estimates in charge.
+            origins.push(if used > 0 { origin } else { Origin::Estimate });
         }
         let origin = match origins.split_first() {
             None => Origin::Estimate,
@@ -127,10 +129,37 @@ impl MeasuredTable {
     }
 }
 
-/// Pairs the measured constants of one kind with the sites of that kind (module doc).
-fn assign(sites: &mut [&mut Site], values: &mut [&Stored], kind: Kind, notes: &mut Vec<String>) {
+/// Pairs the measured constants of one kind with the sites of that kind (module doc); returns
+/// how many sites received a measured value.
+fn assign(
+    sites: &mut [&mut Site],
+    values: &mut [&Stored],
+    kind: Kind,
+    notes: &mut Vec<String>,
+) -> usize {
     sites.sort_by(|a, b| a.pka.total_cmp(&b.pka));
     values.sort_by(|a, b| a.pka.total_cmp(&b.pka));
+    if sites.is_empty() && !values.is_empty() {
+        let list: Vec<String> = values.iter().map(|v| format!("{:.2}", v.pka)).collect();
+        notes.push(format!(
+            "measured {} pKa {} not used: phdose finds no {} site in this structure",
+            kind.as_str(),
+            list.join(", "),
+            kind.as_str()
+        ));
+        return 0;
+    }
+    if values.is_empty() {
+        if !sites.is_empty() {
+            notes.push(format!(
+                "no measured {} constant: {} {} site(s) keep their estimate",
+                kind.as_str(),
+                sites.len(),
+                kind.as_str()
+            ));
+        }
+        return 0;
+    }
     if sites.len() != values.len() {
         notes.push(format!(
             "{} measured {} constant(s) but {} {} site(s) found; the measured values are \
@@ -158,6 +187,7 @@ fn assign(sites: &mut [&mut Site], values: &mut [&Stored], kind: Kind, notes: &m
         site.pka_high = value.pka;
         site.source = value.source.clone();
     }
+    n
 }
 
 /// The measured values no site received, for the note.
@@ -254,6 +284,27 @@ mod tests {
         assert_eq!(sites[1].pka, 2.34);
         assert_eq!(applied.notes.len(), 1);
         assert!(applied.notes[0].contains("13.00"), "{:?}", applied.notes);
+    }
+
+    #[test]
+    fn a_value_without_a_site_of_its_kind_is_reported_not_claimed() {
+        let mut table = MeasuredTable::default();
+        table.builtin.insert(
+            key("NCC(=O)O").unwrap(),
+            vec![stored(Kind::Base, 9.60, "h")],
+        );
+        let mut sites = vec![site(4, Kind::Acid, 3.5)];
+        let applied = table.apply(&glycine(), &mut sites);
+        assert_eq!(applied.origin, Origin::Estimate);
+        assert_eq!(sites[0].pka, 3.5);
+        assert_eq!(applied.notes.len(), 2, "{:?}", applied.notes);
+        assert!(applied.notes.iter().any(|n| n.contains("not used")));
+        assert!(
+            applied
+                .notes
+                .iter()
+                .any(|n| n.contains("keep their estimate"))
+        );
     }
 
     #[test]
