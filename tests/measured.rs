@@ -57,12 +57,12 @@ fn builtin_rows_agree_with_the_iupac_digitized_handbook_values() {
             continue;
         }
         let profile = Profile::new(smiles, &handbook).unwrap();
-        assert_eq!(profile.origin, Origin::Measured, "{smiles}");
         // A measured value needs a site of its kind to sit on; the group table decides that.
         let Some(got) = scored(&profile, k) else {
             uncovered.push(smiles.to_string());
             continue;
         };
+        assert_eq!(profile.origin, Origin::Measured, "{smiles}");
         total += (got - pka).abs();
         n += 1;
     }
