@@ -5,6 +5,7 @@
 //! the user's own tables are never touched by that refresh.
 
 pub mod builtin;
+pub mod measured;
 pub mod migrate;
 pub mod substituents;
 
