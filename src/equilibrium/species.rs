@@ -20,8 +20,11 @@ pub enum SiteKind {
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Site {
     pub kind: SiteKind,
-    /// pKa of the conjugate acid of the pair (HA for an acid, BH+ for a base).
+    /// pKa of the conjugate acid of the pair (HA for an acid, BH+ for a base), at 25 °C.
     pub pka: f64,
+    /// dpKa/dT in pKa units per kelvin, where a table gives it (or an enthalpy); `None` keeps
+    /// the 25 °C value at every temperature (and the report says so).
+    pub dpka_dt: Option<f64>,
 }
 
 impl Site {
@@ -29,6 +32,7 @@ impl Site {
         Site {
             kind: SiteKind::Acid,
             pka,
+            dpka_dt: None,
         }
     }
 
@@ -36,6 +40,7 @@ impl Site {
         Site {
             kind: SiteKind::Base,
             pka,
+            dpka_dt: None,
         }
     }
 
@@ -143,12 +148,42 @@ impl Protolyte {
         self.sites.iter().map(|s| s.fraction_neutral(ph)).product()
     }
 
-    /// Everything the report needs about this solute at `ph`.
+    /// Everything the report needs about this solute at `ph`, ideal activities.
     pub fn state(&self, ph: f64) -> SoluteState {
+        self.state_with(ph, &|_| 0.0)
+    }
+
+    /// The state at `ph` = -log10 a(H+) when a species of charge z has activity coefficient
+    /// 10^log10_gamma(z). The constants hold for activities, so for an acid site
+    /// HA (z0) <-> A (z0 - 1): [A]/[HA] = 10^(pH - pKa) · γ(z0)/γ(z0 - 1), and for a base site
+    /// B (z0) <-> BH (z0 + 1): [BH]/[B] = 10^(pKa - pH) · γ(z0)/γ(z0 + 1). z0 is the fixed
+    /// charge: each site's forms are taken to carry it (the sites stay independent).
+    pub fn state_with(&self, ph: f64, log10_gamma: &dyn Fn(i32) -> f64) -> SoluteState {
+        let z0 = self.fixed_charge.round() as i32;
+        let shifted: Vec<Site> = self
+            .sites
+            .iter()
+            .map(|s| {
+                // Moving the pKa by the γ ratio turns the activity ratio into a
+                // concentration ratio; the neutral/charged split then follows as usual.
+                let shift = match s.kind {
+                    SiteKind::Acid => log10_gamma(z0 - 1) - log10_gamma(z0),
+                    SiteKind::Base => log10_gamma(z0) - log10_gamma(z0 + 1),
+                };
+                Site {
+                    pka: s.pka + shift,
+                    ..*s
+                }
+            })
+            .collect();
         SoluteState {
-            mean_charge: self.mean_charge(ph),
-            fraction_neutral: self.fraction_neutral(ph),
-            fraction_ionized: self.sites.iter().map(|s| s.fraction_ionized(ph)).collect(),
+            mean_charge: self.fixed_charge
+                + shifted
+                    .iter()
+                    .map(|s| s.charge() * s.fraction_ionized(ph))
+                    .sum::<f64>(),
+            fraction_neutral: shifted.iter().map(|s| s.fraction_neutral(ph)).product(),
+            fraction_ionized: shifted.iter().map(|s| s.fraction_ionized(ph)).collect(),
         }
     }
 }
@@ -208,6 +243,25 @@ mod tests {
         assert_eq!(quat.mean_charge(1.0), 1.0);
         assert_eq!(quat.mean_charge(13.0), 1.0);
         assert_eq!(quat.fraction_neutral(7.0), 1.0);
+    }
+
+    #[test]
+    fn activity_moves_the_apparent_pka() {
+        // Acid HA (0) <-> A- (-1) with γ(-1) = 10^-0.1: [A-]/[HA] = 10^(pH - pKa) / γ(-1), so
+        // at pH = pKa the ionized fraction is 1/(1 + 10^-0.1) (independent arithmetic).
+        let p = Protolyte::new(1e-3, vec![Site::acid(4.0)], 0.0);
+        let lg = |z: i32| if z == 0 { 0.0 } else { -0.1 * (z * z) as f64 };
+        let st = p.state_with(4.0, &lg);
+        let r = 10f64.powf(0.1);
+        assert!((st.fraction_ionized[0] - r / (1.0 + r)).abs() < 1e-12);
+        // A quaternary ammonium acid site (fixed +1): HA+ (+1) <-> A (0), ratio γ(+1)/γ(0).
+        let q = Protolyte::new(1e-3, vec![Site::acid(4.0)], 1.0);
+        let st = q.state_with(4.0, &lg);
+        let r = 10f64.powf(-0.1);
+        assert!((st.fraction_ionized[0] - r / (1.0 + r)).abs() < 1e-12);
+        assert!((st.mean_charge - (1.0 - r / (1.0 + r))).abs() < 1e-12);
+        // With all γ = 1 it is the ideal state.
+        assert_eq!(p.state_with(5.0, &|_| 0.0), p.state(5.0));
     }
 
     #[test]
