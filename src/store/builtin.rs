@@ -15,7 +15,11 @@ pub fn data_version() -> String {
     format!(
         "{}-{:016x}",
         env!("CARGO_PKG_VERSION"),
-        fnv1a(&[GROUPS_CSV])
+        fnv1a(&[
+            GROUPS_CSV,
+            crate::equilibrium::reagent::REAGENTS_CSV,
+            crate::equilibrium::reagent::REAGENT_STOCKS_CSV,
+        ])
     )
 }
 
@@ -74,6 +78,7 @@ pub fn refresh(conn: &mut Connection) -> Result<()> {
             ])?;
         }
     }
+    super::reagents::refresh(&tx)?;
     tx.execute(
         "INSERT INTO store_meta (key, value) VALUES ('data_version', ?1)
          ON CONFLICT(key) DO UPDATE SET value = excluded.value",

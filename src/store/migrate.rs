@@ -8,11 +8,10 @@ use rusqlite::Connection;
 use crate::error::{Error, Result};
 
 /// The embedded migrations, in the order they must be applied.
-pub const MIGRATIONS: &[(u32, &str, &str)] = &[(
-    1,
-    "groups",
-    include_str!("../../migrations/0001_groups.sql"),
-)];
+pub const MIGRATIONS: &[(u32, &str, &str)] = &[
+    (1, "groups", include_str!("../../migrations/0001_groups.sql")),
+    (4, "reagents", include_str!("../../migrations/0004_reagents.sql")),
+];
 
 /// Applies every migration newer than the store's recorded version. Returns how many ran.
 pub fn migrate(conn: &mut Connection) -> Result<usize> {
@@ -28,6 +27,12 @@ pub fn migrate(conn: &mut Connection) -> Result<usize> {
         [],
         |row| row.get(0),
     )?;
+    // Numbers are reserved per feature, so a store may have a later one before an earlier
+    // one lands: apply every migration not yet recorded, in order.
+    let done: Vec<u32> = conn
+        .prepare("SELECT version FROM schema_migrations")?
+        .query_map([], |row| row.get(0))?
+        .collect::<rusqlite::Result<_>>()?;
     if let Some(&(latest, _, _)) = MIGRATIONS.last()
         && current > latest
     {
@@ -37,7 +42,7 @@ pub fn migrate(conn: &mut Connection) -> Result<usize> {
         )));
     }
     let mut applied = 0;
-    for &(version, name, sql) in MIGRATIONS.iter().filter(|m| m.0 > current) {
+    for &(version, name, sql) in MIGRATIONS.iter().filter(|m| !done.contains(&m.0)) {
         let tx = conn.transaction()?;
         tx.execute_batch(sql)
             .map_err(|e| Error::Store(format!("migration {version:04}_{name} failed: {e}")))?;
@@ -57,8 +62,8 @@ mod tests {
 
     #[test]
     fn migrations_are_numbered_in_order() {
-        for (i, m) in MIGRATIONS.iter().enumerate() {
-            assert_eq!(m.0 as usize, i + 1, "migration {} out of order", m.1);
+        for pair in MIGRATIONS.windows(2) {
+            assert!(pair[0].0 < pair[1].0, "migration {} out of order", pair[1].1);
         }
     }
 

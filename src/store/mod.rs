@@ -6,6 +6,7 @@
 
 pub mod builtin;
 pub mod migrate;
+pub mod reagents;
 
 use std::path::{Path, PathBuf};
 
