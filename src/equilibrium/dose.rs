@@ -267,7 +267,8 @@ pub fn choose_auto(
                     reagent: reagent.clone(),
                     stock: offer.clone(),
                     reason: format!(
-                        "auto: {} ({}) is the mildest listed {what} (mildness rank {}) that                          takes the layer from pH {} to {}{skipped}",
+                        "auto: {} ({}) is the mildest listed {what} (mildness rank {}) that \
+                         takes the layer from pH {} to {}{skipped}",
                         reagent.name,
                         offer.label(),
                         reagent.mildness,
