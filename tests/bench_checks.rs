@@ -25,7 +25,12 @@ fn molar(r: &Reagent, form: StockForm) -> f64 {
 
 /// `mol` of reagent `name` dissolved to 1 L.
 fn solution(name: &str, mol: f64) -> AqueousLayer {
-    with_reagent(&AqueousLayer::water(1.0), &reagent(name), &Stock::Solid, mol)
+    with_reagent(
+        &AqueousLayer::water(1.0),
+        &reagent(name),
+        &Stock::Solid,
+        mol,
+    )
 }
 
 fn davies(t: f64) -> Conditions {
@@ -55,8 +60,16 @@ fn carbonic_acid_with_temperature() {
     // (Harned & Scholes 1941), all from memory; the Plummer & Busenberg fit reproduces them.
     for (t, pk1, pk2) in [(0.0, 6.579, 10.625), (50.0, 6.285, 10.172)] {
         let c = Conditions::new(t).unwrap();
-        assert!((c.carbonate_pk1() - pk1).abs() < 0.01, "{t}: {}", c.carbonate_pk1());
-        assert!((c.carbonate_pk2() - pk2).abs() < 0.01, "{t}: {}", c.carbonate_pk2());
+        assert!(
+            (c.carbonate_pk1() - pk1).abs() < 0.01,
+            "{t}: {}",
+            c.carbonate_pk1()
+        );
+        assert!(
+            (c.carbonate_pk2() - pk2).abs() < 0.01,
+            "{t}: {}",
+            c.carbonate_pk2()
+        );
     }
     // CO2 is less soluble warm: Henry's constant 0.0764 at 0 °C, 0.0194 at 50 °C
     // mol/(kg atm) (Weiss 1974, from memory).
@@ -79,8 +92,18 @@ fn davies_against_published_tables() {
     // CaCl2 0.888, 0.732, 0.518. Davies is an approximation: 2 % for 1:1 up to 0.1 m, 4 %
     // for 2:1.
     let a = Conditions::standard().davies_a();
-    let one_one = |m: f64| Gammas::Davies { a, ionic_strength: m }.gamma(1);
-    for (m, nacl, hcl) in [(0.001, 0.965, 0.965), (0.01, 0.902, 0.904), (0.1, 0.778, 0.796)] {
+    let one_one = |m: f64| {
+        Gammas::Davies {
+            a,
+            ionic_strength: m,
+        }
+        .gamma(1)
+    };
+    for (m, nacl, hcl) in [
+        (0.001, 0.965, 0.965),
+        (0.01, 0.902, 0.904),
+        (0.1, 0.778, 0.796),
+    ] {
         let g = one_one(m);
         assert!((g / nacl - 1.0).abs() < 0.02, "NaCl {m}: {g}");
         assert!((g / hcl - 1.0).abs() < 0.02, "HCl {m}: {g}");
@@ -149,8 +172,16 @@ fn tenth_molar_sodium_carbonate_is_about_11_6() {
     }
     let by_hand = c.pkw() + lg(1.0, i) + x.log10();
     let real = solve_ph(&layer, &davies(25.0)).unwrap();
-    assert!((real.ph - by_hand).abs() < 0.005, "{} vs {by_hand}", real.ph);
-    assert!((real.ionic_strength - i).abs() < 1e-4, "{}", real.ionic_strength);
+    assert!(
+        (real.ph - by_hand).abs() < 0.005,
+        "{} vs {by_hand}",
+        real.ph
+    );
+    assert!(
+        (real.ionic_strength - i).abs() < 1e-4,
+        "{}",
+        real.ionic_strength
+    );
     assert!((11.3..11.6).contains(&real.ph), "{}", real.ph);
 }
 
@@ -184,7 +215,11 @@ fn bicarbonate_into_acid_vents_co2() {
     let kept = carbon.co2_mol + carbon.bicarbonate_mol + carbon.carbonate_mol;
     assert!((kept + carbon.released_mol - 10e-3).abs() < 1e-15);
     // About 8.3 mmol leave: 10 - 0.034 · 0.05 · (1 + small HCO3- share).
-    assert!((carbon.released_mol - 8.3e-3).abs() < 0.1e-3, "{}", carbon.released_mol);
+    assert!(
+        (carbon.released_mol - 8.3e-3).abs() < 0.1e-3,
+        "{}",
+        carbon.released_mol
+    );
     let ml = carbon.released_mol * 0.082057 * 298.15 * 1e3;
     assert!((ml - 203.0).abs() < 3.0, "{ml} mL");
 }
@@ -195,7 +230,12 @@ fn sulfuric_acid_second_proton() {
     let (k2, c0) = (10f64.powf(-1.99), 0.01);
     let h = (-(k2 - c0) + ((k2 - c0).powi(2) + 8.0 * c0 * k2).sqrt()) / 2.0;
     let eq = solve_ph(&solution("h2so4", 0.01), &Conditions::standard()).unwrap();
-    assert!((eq.ph + h.log10()).abs() < 1e-4, "{} vs {}", eq.ph, -h.log10());
+    assert!(
+        (eq.ph + h.log10()).abs() < 1e-4,
+        "{} vs {}",
+        eq.ph,
+        -h.log10()
+    );
     // Between one and two strong protons: pH 1.85, not 2.00 or 1.70.
     assert!((eq.ph - 1.85).abs() < 0.01);
 }
@@ -226,11 +266,22 @@ fn phosphate_standard_buffer() {
     );
     assert_eq!(layer.polyprotics.len(), 1, "one pooled phosphate system");
     let ideal = solve_ph(&layer, &Conditions::standard()).unwrap().ph;
-    assert!((ideal - 7.198).abs() < 0.01, "Henderson–Hasselbalch: {ideal}");
+    assert!(
+        (ideal - 7.198).abs() < 0.01,
+        "Henderson–Hasselbalch: {ideal}"
+    );
     for (t, want, tolerance) in [(25.0, 6.865, 0.02), (0.0, 6.984, 0.05), (50.0, 6.833, 0.05)] {
         let eq = solve_ph(&layer, &davies(t)).unwrap();
-        assert!((eq.ph - want).abs() < tolerance, "{t} °C: {} vs {want}", eq.ph);
-        assert!((eq.ionic_strength - 0.1).abs() < 0.002, "{}", eq.ionic_strength);
+        assert!(
+            (eq.ph - want).abs() < tolerance,
+            "{t} °C: {} vs {want}",
+            eq.ph
+        );
+        assert!(
+            (eq.ionic_strength - 0.1).abs() < 0.002,
+            "{}",
+            eq.ionic_strength
+        );
     }
 }
 
@@ -298,5 +349,8 @@ fn salts_and_charged_inputs_end_to_end() {
     let (ph, charge, pk) = start_of("C[N+](C)(C)C.[Cl-]", 1.0);
     assert!(pk.is_empty());
     assert_eq!(charge, 1.0);
-    assert!((ph - Conditions::standard().pkw() / 2.0).abs() < 1e-6, "{ph}");
+    assert!(
+        (ph - Conditions::standard().pkw() / 2.0).abs() < 1e-6,
+        "{ph}"
+    );
 }

@@ -351,7 +351,10 @@ fn bad_amounts_volumes_ph_and_reagents_exit_2() {
             "not supported yet",
         ),
         ([&base[..], &["--temp", "75"]].concat(), "outside 0-60"),
-        ([&base[..], &["--co2", "open"]].concat(), "closed, vented or air"),
+        (
+            [&base[..], &["--co2", "open"]].concat(),
+            "closed, vented or air",
+        ),
         ([&base[..], &["--pka", "CCN", "9.1,3.3"]].concat(), "site"),
     ];
     for (args, needle) in cases {

@@ -51,7 +51,11 @@ pub fn fractions(ph: f64, conditions: &Conditions) -> (f64, f64, f64) {
 }
 
 /// The same with activity coefficients 10^lg(z).
-pub fn fractions_with(ph: f64, conditions: &Conditions, lg: &dyn Fn(i32) -> f64) -> (f64, f64, f64) {
+pub fn fractions_with(
+    ph: f64,
+    conditions: &Conditions,
+    lg: &dyn Fn(i32) -> f64,
+) -> (f64, f64, f64) {
     let pks = [conditions.carbonate_pk1(), conditions.carbonate_pk2()];
     let f = stepwise_fractions(ph, 0, &pks, lg);
     (f[0], f[1], f[2])

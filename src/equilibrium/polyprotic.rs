@@ -61,8 +61,7 @@ impl Polyprotic {
                 self.name, self.total_mol
             )));
         }
-        if self.pkas.iter().any(|p| !p.is_finite()) || self.dh_kj_mol.len() != self.pkas.len()
-        {
+        if self.pkas.iter().any(|p| !p.is_finite()) || self.dh_kj_mol.len() != self.pkas.len() {
             return Err(Error::Input(format!("{}: bad constants", self.name)));
         }
         Ok(())

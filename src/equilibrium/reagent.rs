@@ -205,7 +205,10 @@ impl Reagent {
 
     /// Builds reagents from rows of text in the column order of `REAGENT_COLUMNS` and
     /// `STOCK_COLUMNS` (CSV files and the store both give them so).
-    pub fn from_rows(reagent_rows: &[Vec<String>], stock_rows: &[Vec<String>]) -> Result<Vec<Reagent>> {
+    pub fn from_rows(
+        reagent_rows: &[Vec<String>],
+        stock_rows: &[Vec<String>],
+    ) -> Result<Vec<Reagent>> {
         let mut reagents = Vec::new();
         for (line, row) in reagent_rows.iter().enumerate() {
             reagents.push(reagent_from_row(row).map_err(|m| bad_table("reagents", line, &m))?);
@@ -525,7 +528,8 @@ mod tests {
     fn bad_tables_are_internal_errors() {
         let header = format!("{}\n", REAGENT_COLUMNS.join(","));
         let stocks = format!("{}\n", STOCK_COLUMNS.join(","));
-        let row = |role: &str, source: &str| format!("{header}x,X,1,{role},1,0,1,0,,,,,,none,{source}\n");
+        let row =
+            |role: &str, source: &str| format!("{header}x,X,1,{role},1,0,1,0,,,,,,none,{source}\n");
         assert!(matches!(
             Reagent::load_all(&row("acid", ""), &stocks),
             Err(Error::Internal(_))
@@ -559,7 +563,11 @@ mod tests {
         assert_eq!(nh4cl.system.as_ref().unwrap().top_charge, 1);
         // Every reagent has a mildness rank, a hazard line and at least one stock.
         for r in &all {
-            assert!(r.mildness >= 1 && !r.hazards.is_empty() && !r.stocks.is_empty(), "{}", r.name);
+            assert!(
+                r.mildness >= 1 && !r.hazards.is_empty() && !r.stocks.is_empty(),
+                "{}",
+                r.name
+            );
         }
     }
 }

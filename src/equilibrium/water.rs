@@ -244,8 +244,16 @@ mod tests {
     fn carbonic_acid_constants() {
         let c = Conditions::standard();
         // Harned & Davis (1943), Harned & Scholes (1941): 6.352 and 10.329 at 25 °C.
-        assert!((c.carbonate_pk1() - 6.352).abs() < 0.002, "{}", c.carbonate_pk1());
-        assert!((c.carbonate_pk2() - 10.329).abs() < 0.002, "{}", c.carbonate_pk2());
+        assert!(
+            (c.carbonate_pk1() - 6.352).abs() < 0.002,
+            "{}",
+            c.carbonate_pk1()
+        );
+        assert!(
+            (c.carbonate_pk2() - 10.329).abs() < 0.002,
+            "{}",
+            c.carbonate_pk2()
+        );
         // Henry's constant of CO2 at 25 °C: 0.034 mol/(L atm) (Sander 2015 compilation).
         assert!((c.co2_henry() - 0.034).abs() < 0.0005, "{}", c.co2_henry());
     }

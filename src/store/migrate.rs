@@ -9,8 +9,16 @@ use crate::error::{Error, Result};
 
 /// The embedded migrations, in the order they must be applied.
 pub const MIGRATIONS: &[(u32, &str, &str)] = &[
-    (1, "groups", include_str!("../../migrations/0001_groups.sql")),
-    (4, "reagents", include_str!("../../migrations/0004_reagents.sql")),
+    (
+        1,
+        "groups",
+        include_str!("../../migrations/0001_groups.sql"),
+    ),
+    (
+        4,
+        "reagents",
+        include_str!("../../migrations/0004_reagents.sql"),
+    ),
 ];
 
 /// Applies every migration newer than the store's recorded version. Returns how many ran.
@@ -63,7 +71,11 @@ mod tests {
     #[test]
     fn migrations_are_numbered_in_order() {
         for pair in MIGRATIONS.windows(2) {
-            assert!(pair[0].0 < pair[1].0, "migration {} out of order", pair[1].1);
+            assert!(
+                pair[0].0 < pair[1].0,
+                "migration {} out of order",
+                pair[1].1
+            );
         }
     }
 

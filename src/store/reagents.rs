@@ -33,7 +33,12 @@ pub fn refresh(tx: &Transaction) -> Result<()> {
     tx.execute("DELETE FROM builtin_reagent_stocks", [])?;
     tx.execute("DELETE FROM builtin_reagents", [])?;
     fill(tx, "builtin_reagents", &REAGENT_COLUMNS, REAGENTS_CSV)?;
-    fill(tx, "builtin_reagent_stocks", &STOCK_COLUMNS, REAGENT_STOCKS_CSV)
+    fill(
+        tx,
+        "builtin_reagent_stocks",
+        &STOCK_COLUMNS,
+        REAGENT_STOCKS_CSV,
+    )
 }
 
 fn fill(tx: &Transaction, table: &str, columns: &[&str], csv_text: &str) -> Result<()> {

@@ -176,7 +176,8 @@ pub fn adjust(
         .iter()
         .map(|&target| {
             let (reagent, offer, why) = if auto {
-                let choice = equilibrium::choose_auto(&layer, target, &request.conditions, catalogue)?;
+                let choice =
+                    equilibrium::choose_auto(&layer, target, &request.conditions, catalogue)?;
                 (choice.reagent, choice.stock, Some(choice.reason))
             } else {
                 let reagent = Reagent::find(catalogue, &request.reagent)?;
@@ -242,8 +243,7 @@ fn report(ctx: &Context, dose: &Dose, target: f64) -> Result<Adjustment> {
         });
     }
     let carbon = &eq.carbonate;
-    let released_ml =
-        carbon.released_mol * GAS_CONSTANT_L_ATM * conditions.temperature_k() * 1e3;
+    let released_ml = carbon.released_mol * GAS_CONSTANT_L_ATM * conditions.temperature_k() * 1e3;
     // Gas: CO2 left the layer, or (closed) CO2 formed that would leave an open funnel.
     let gas = carbon.released_mol > 0.0
         || (reagent.carbonate > 0.0
@@ -252,7 +252,13 @@ fn report(ctx: &Context, dose: &Dose, target: f64) -> Result<Adjustment> {
     if let Some(why) = &ctx.why {
         notes.push(why.clone());
     }
-    notes.extend(co2_notes(reagent, conditions, eq, released_ml, ctx.limit_ph));
+    notes.extend(co2_notes(
+        reagent,
+        conditions,
+        eq,
+        released_ml,
+        ctx.limit_ph,
+    ));
     for p in prepared {
         if let Some(b) = &p.profile.compound.balanced_with {
             notes.push(format!(
@@ -295,10 +301,7 @@ fn report(ctx: &Context, dose: &Dose, target: f64) -> Result<Adjustment> {
         cautions: cautions_for(
             &reagent.name,
             &dose.stock,
-            &Situation {
-                gas,
-                solvent: None,
-            },
+            &Situation { gas, solvent: None },
         )?,
         notes,
     })

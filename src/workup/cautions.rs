@@ -30,14 +30,7 @@ pub struct Situation {
 /// Cautions for `reagent` used as `stock`; `gas` says whether CO2 is formed. The general
 /// deferral to local rules always comes last.
 pub fn cautions(reagent: &str, stock: &str, gas: bool) -> Result<Vec<String>> {
-    cautions_for(
-        reagent,
-        stock,
-        &Situation {
-            gas,
-            solvent: None,
-        },
-    )
+    cautions_for(reagent, stock, &Situation { gas, solvent: None })
 }
 
 /// Cautions for `reagent` used as `stock` in `situation`, deferral last.
@@ -92,7 +85,10 @@ mod tests {
     #[test]
     fn concentrated_acid_says_acid_into_water() {
         let c = cautions("hcl", "37%", false).unwrap();
-        assert!(c.iter().any(|c| c.contains("adding the acid slowly to water")));
+        assert!(
+            c.iter()
+                .any(|c| c.contains("adding the acid slowly to water"))
+        );
         assert!(c.iter().any(|c| c.contains("corrosive")));
         let c = cautions("h2so4", "96%", false).unwrap();
         assert!(c.iter().any(|c| c.contains("never water to the acid")));
