@@ -9,6 +9,7 @@ pub mod chem;
 pub mod cli;
 pub mod equilibrium;
 pub mod error;
+pub mod partition;
 pub mod report;
 pub mod store;
 pub mod units;

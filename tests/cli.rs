@@ -451,3 +451,22 @@ fn a_foreign_file_at_the_store_path_is_refused_and_left_untouched() {
     assert!(stderr(&o).contains("not a phdose store"), "{}", stderr(&o));
     assert_eq!(std::fs::read(&path).unwrap(), before);
 }
+
+#[test]
+fn info_reports_logp_and_its_source() {
+    // Phenol: handbook logP 1.46 (Hansch, Leo & Hoekman 1995, from memory) wins over the
+    // estimate; with --estimate-only the Wildman-Crippen value, 1.3922 per RDKit 2026.09.1
+    // Crippen.MolLogP (tests/reference/logp.csv).
+    let v = json(&phdose(
+        "info-logp",
+        &["info", "Oc1ccccc1", "--format", "json"],
+    ));
+    assert_eq!(v["logp"].as_f64(), Some(1.46), "{v}");
+    assert!(v["logp_source"].as_str().unwrap().starts_with("measured"));
+    let v = json(&phdose(
+        "info-logp-est",
+        &["info", "Oc1ccccc1", "--estimate-only", "--format", "json"],
+    ));
+    assert!((v["logp"].as_f64().unwrap() - 1.3922).abs() < 0.001, "{v}");
+    assert!(v["logp_source"].as_str().unwrap().starts_with("estimate"));
+}

@@ -2,6 +2,7 @@
 
 pub mod group;
 pub mod handbook;
+pub mod interplay;
 pub mod profile;
 pub mod sites;
 

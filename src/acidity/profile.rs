@@ -70,6 +70,7 @@ impl Profile {
                     })
                     .collect();
                 Protolyte::new(amount_mol, sites, parent.permanent_charge as f64)
+                    .with_couplings(self.parent_couplings(i))
             })
             .collect();
         (

@@ -1,4 +1,5 @@
-//! `phdose info`: formula in Hill order, molar mass, net charge and components.
+//! `phdose info`: formula in Hill order, molar mass, net charge, components and the octanol/water
+//! logP of the neutral parent (handbook value or Wildman–Crippen estimate, said in `logp_source`).
 
 use std::path::PathBuf;
 
@@ -10,6 +11,7 @@ use crate::chem::components::split;
 use crate::chem::formula::{formula, hill_formula_of, molar_mass};
 use crate::chem::molecule::Molecule;
 use crate::error::{Error, Result};
+use crate::partition::measured::octanol_log_p;
 use crate::report;
 
 #[derive(Debug, clap::Args)]
@@ -19,7 +21,7 @@ pub struct Args {
     /// Read structures from a file (CSV with a `smiles` column, or one per line; `-` = stdin).
     #[arg(long, value_name = "FILE")]
     pub input: Option<PathBuf>,
-    /// Ignore stored measured values (accepted for symmetry with `pka`).
+    /// Ignore handbook values (logP here) and use the estimates alone.
     #[arg(long)]
     pub estimate_only: bool,
 }
@@ -40,6 +42,10 @@ pub struct Info {
     pub molar_mass: Option<f64>,
     pub charge: Option<i32>,
     pub components: Vec<Component>,
+    /// Octanol/water logP of the neutral parent; `None` unless there is exactly one parent.
+    pub logp: Option<f64>,
+    /// `measured: <handbook>` or `estimate: ...`.
+    pub logp_source: Option<String>,
     pub error: Option<String>,
 }
 
@@ -51,11 +57,19 @@ struct Row {
     #[serde(rename = "molar_mass")]
     molar_mass: String,
     charge: String,
+    #[tabled(rename = "logP")]
+    #[serde(rename = "logp")]
+    logp: String,
     components: String,
 }
 
 /// Describes one SMILES.
 pub fn describe(smiles: &str) -> Result<Info> {
+    describe_with(smiles, false)
+}
+
+/// Describes one SMILES; `estimate_only` skips the handbook logP values.
+pub fn describe_with(smiles: &str, estimate_only: bool) -> Result<Info> {
     let mol = Molecule::from_smiles(smiles)?;
     let compound = split(&mol)?;
     let components = mol
@@ -71,12 +85,22 @@ pub fn describe(smiles: &str) -> Result<Info> {
             formula: hill_formula_of(&compound.neutral, &atoms),
         })
         .collect();
+    let logp = match compound.parents.as_slice() {
+        [parent] => Some(octanol_log_p(
+            &compound.neutral,
+            &parent.atoms,
+            estimate_only,
+        )?),
+        _ => None,
+    };
     Ok(Info {
         smiles: smiles.to_string(),
         formula: Some(formula(&mol)),
         molar_mass: Some(molar_mass(&mol)),
         charge: Some(mol.charge()),
         components,
+        logp: logp.as_ref().map(|l| l.log_p),
+        logp_source: logp.map(|l| l.source),
         error: None,
     })
 }
@@ -94,7 +118,7 @@ pub fn run(args: &Args, cli: &Cli) -> Result<String> {
     }
     let mut infos = Vec::with_capacity(list.len());
     for smiles in &list {
-        match describe(smiles) {
+        match describe_with(smiles, args.estimate_only) {
             Ok(info) => infos.push(info),
             // Typed on the command line: stop and point at the problem. From a file: keep going.
             Err(e) if !batch => return Err(e),
@@ -104,6 +128,8 @@ pub fn run(args: &Args, cli: &Cli) -> Result<String> {
                 molar_mass: None,
                 charge: None,
                 components: vec![],
+                logp: None,
+                logp_source: None,
                 error: Some(e.to_string()),
             }),
         }
@@ -115,6 +141,11 @@ pub fn run(args: &Args, cli: &Cli) -> Result<String> {
             formula: i.formula.clone().unwrap_or_default(),
             molar_mass: i.molar_mass.map(|m| format!("{m:.3}")).unwrap_or_default(),
             charge: i.charge.map(|c| c.to_string()).unwrap_or_default(),
+            logp: match (i.logp, &i.logp_source) {
+                (Some(v), Some(s)) if s.starts_with("measured") => format!("{v:.2} (measured)"),
+                (Some(v), _) => format!("{v:.2} (estimate)"),
+                _ => String::new(),
+            },
             components: match &i.error {
                 Some(e) => format!("error: {}", e.lines().next().unwrap_or("")),
                 None => i

@@ -2,10 +2,12 @@
 //! holds the shared flags and dispatches.
 
 pub mod adjust;
+pub mod curve;
 pub mod demo;
 pub mod info;
 pub mod input;
 pub mod pka;
+pub mod shell;
 
 use std::path::PathBuf;
 
@@ -16,7 +18,7 @@ use crate::store::{self, Store};
 
 /// phdose: pKa values, aqueous equilibria and reagent amounts for acid-base workups.
 #[derive(Debug, Parser)]
-#[command(name = "phdose", version, about, long_about = None)]
+#[command(name = "phdose", version = shell::long_version(), about, long_about = None)]
 pub struct Cli {
     #[command(subcommand)]
     pub command: Command,
@@ -49,8 +51,14 @@ pub enum Command {
     Pka(pka::Args),
     /// Reagent amount that brings an aqueous layer to a target pH.
     Adjust(adjust::Args),
+    /// Fraction ionized (or mean charge) and logD against pH, as a table or an SVG figure.
+    Curve(curve::Args),
     /// A built-in workup scenario, end to end.
     Demo(demo::Args),
+    /// Shell completion script (bash, zsh, fish, powershell, elvish) on standard output.
+    Completions(shell::CompletionArgs),
+    /// The manual page (roff) on standard output.
+    Manpage,
 }
 
 /// Opens the store named by `--db`, `$PHDOSE_DB` or the platform default.
@@ -67,6 +75,9 @@ pub fn run(cli: &Cli) -> Result<String> {
         Command::Info(args) => info::run(args, cli),
         Command::Pka(args) => pka::run(args, cli),
         Command::Adjust(args) => adjust::run(args, cli),
+        Command::Curve(args) => curve::run(args, cli),
         Command::Demo(args) => demo::run(args, cli),
+        Command::Completions(args) => shell::completions(args),
+        Command::Manpage => shell::manpage(),
     }
 }

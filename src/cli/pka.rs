@@ -6,6 +6,7 @@ use serde::Serialize;
 use tabled::Tabled;
 
 use super::{Cli, Format, input, open_store};
+use crate::acidity::interplay::SiteConstant;
 use crate::acidity::{Handbook, Profile, Site};
 use crate::error::{Error, Result};
 use crate::report;
@@ -29,6 +30,12 @@ pub struct PkaResult {
     pub smiles: String,
     pub sites: Vec<Site>,
     pub error: Option<String>,
+    /// Macroscopic pKa values (what a titration sees), ascending; sites interact.
+    pub macro_pka: Vec<f64>,
+    /// Per site: microscopic pKa and the pH of half ionization in the molecule.
+    pub site_constants: Vec<SiteConstant>,
+    /// Set when sites had to be treated as independent.
+    pub note: Option<String>,
 }
 
 #[derive(Tabled, Serialize)]
@@ -40,16 +47,24 @@ struct Row {
     pka: String,
     pka_low: String,
     pka_high: String,
+    /// pH at which the site is half ionized in the molecule (other sites titrating too).
+    in_molecule: String,
+    /// Macroscopic constants of the compound, on its first row.
+    macro_pka: String,
     source: String,
 }
 
 /// Sites of one SMILES, or the error that stopped reading it.
 pub fn annotate(smiles: &str, handbook: &Handbook) -> Result<PkaResult> {
     let profile = Profile::new(smiles, handbook)?;
+    let constants = profile.constants();
     Ok(PkaResult {
         smiles: smiles.to_string(),
         sites: profile.sites,
         error: None,
+        macro_pka: constants.macro_pka,
+        site_constants: constants.sites,
+        note: constants.note,
     })
 }
 
@@ -64,6 +79,8 @@ fn rows(results: &[PkaResult]) -> Vec<Row> {
             pka: String::new(),
             pka_low: String::new(),
             pka_high: String::new(),
+            in_molecule: String::new(),
+            macro_pka: String::new(),
             source: String::new(),
         };
         if let Some(e) = &r.error {
@@ -71,7 +88,15 @@ fn rows(results: &[PkaResult]) -> Vec<Row> {
         } else if r.sites.is_empty() {
             rows.push(blank("no ionizable site in water"));
         }
-        for s in &r.sites {
+        let macro_pka: Vec<String> = r.macro_pka.iter().map(|p| format!("{p:.2}")).collect();
+        for (k, s) in r.sites.iter().enumerate() {
+            let in_molecule = r
+                .site_constants
+                .iter()
+                .find(|c| c.atom == s.atom)
+                .and_then(|c| c.pka_in_molecule)
+                .map(|p| format!("{p:.2}"))
+                .unwrap_or_default();
             rows.push(Row {
                 smiles: r.smiles.clone(),
                 atom: s.atom.to_string(),
@@ -80,6 +105,12 @@ fn rows(results: &[PkaResult]) -> Vec<Row> {
                 pka: format!("{:.2}", s.pka),
                 pka_low: format!("{:.2}", s.pka_low),
                 pka_high: format!("{:.2}", s.pka_high),
+                in_molecule,
+                macro_pka: if k == 0 {
+                    macro_pka.join(", ")
+                } else {
+                    String::new()
+                },
                 source: s.source.clone(),
             });
         }
@@ -108,6 +139,9 @@ pub fn run(args: &Args, cli: &Cli) -> Result<String> {
                 smiles: smiles.clone(),
                 sites: vec![],
                 error: Some(e.to_string()),
+                macro_pka: vec![],
+                site_constants: vec![],
+                note: None,
             }),
         }
     }

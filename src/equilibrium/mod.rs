@@ -5,6 +5,7 @@
 pub mod activity;
 pub mod carbonate;
 pub mod dose;
+pub mod microstates;
 pub mod polyprotic;
 pub mod reagent;
 pub mod solve;
@@ -14,6 +15,7 @@ pub mod water;
 pub use activity::{DAVIES_LIMIT_M, Gammas};
 pub use carbonate::{CarbonateSpecies, Co2Mode};
 pub use dose::{AutoChoice, Dose, choose_auto, dose, dose_with_alternatives, reachable_range};
+pub use microstates::Coupling;
 pub use polyprotic::Polyprotic;
 pub use reagent::{Reagent, Role, Stock, StockForm, StockOffer};
 pub use solve::{Equilibrium, at_temperature, charge_residual, solve_ph};

@@ -1,10 +1,13 @@
-//! Solutes as protolytes: a total amount, ionizable sites treated as independent, and a fixed
-//! (permanent) charge. Gives, at a pH, each site's fraction ionized, the solute's mean charge,
-//! and the fraction of the form with every site neutral (the extractable one).
+//! Solutes as protolytes: a total amount, ionizable sites, the interactions between them, and
+//! a fixed (permanent) charge. Gives, at a pH, each site's fraction ionized, the solute's mean
+//! charge, and the fraction of the form with every site neutral (the extractable one). The
+//! forms are weighted as microstates (see `microstates.rs`); without couplings the sites are
+//! independent.
 //!
 //! Acid site: HA (0) <-> A- (-1). Base site: B (0) <-> BH+ (+1). In both cases the pKa is that
 //! of the conjugate acid, as handbooks tabulate it.
 
+use super::microstates::{self, Coupling};
 use crate::error::{Error, Result};
 
 /// Which way a site ionizes.
@@ -62,14 +65,6 @@ impl Site {
             SiteKind::Base => logistic(ph - self.pka),
         }
     }
-
-    /// Charge of the ionized form.
-    fn charge(&self) -> f64 {
-        match self.kind {
-            SiteKind::Acid => -1.0,
-            SiteKind::Base => 1.0,
-        }
-    }
 }
 
 /// r / (1 + r) with r = 10^x, without overflow: 0 for very negative x, 1 for very positive.
@@ -90,6 +85,8 @@ pub struct Protolyte {
     pub sites: Vec<Site>,
     /// Charge that no pH removes (a quaternary ammonium is +1).
     pub fixed_charge: f64,
+    /// Pairwise interactions between `sites` (indices into it); empty = independent sites.
+    pub couplings: Vec<Coupling>,
 }
 
 /// A protolyte's state at one pH.
@@ -109,7 +106,14 @@ impl Protolyte {
             total_mol,
             sites,
             fixed_charge,
+            couplings: Vec::new(),
         }
+    }
+
+    /// The same protolyte with interactions between its sites.
+    pub fn with_couplings(mut self, couplings: Vec<Coupling>) -> Protolyte {
+        self.couplings = couplings;
+        self
     }
 
     /// Rejects amounts and constants that would make the charge balance meaningless.
@@ -129,62 +133,53 @@ impl Protolyte {
                 site.pka
             )));
         }
+        let n = self.sites.len();
+        if let Some(c) = self
+            .couplings
+            .iter()
+            .find(|c| c.a >= n || c.b >= n || c.a == c.b || !c.shift.is_finite())
+        {
+            return Err(Error::Input(format!(
+                "site coupling {}-{} ({}) does not fit {} site(s)",
+                c.a, c.b, c.shift, n
+            )));
+        }
         Ok(())
     }
 
-    /// Average charge per molecule at `ph`.
+    /// Average charge per molecule at `ph` (ideal activities).
     pub fn mean_charge(&self, ph: f64) -> f64 {
-        self.fixed_charge
-            + self
-                .sites
-                .iter()
-                .map(|s| s.charge() * s.fraction_ionized(ph))
-                .sum::<f64>()
+        self.state(ph).mean_charge
     }
 
-    /// Fraction with every site neutral: the product of the per-site neutral fractions,
-    /// since the sites are independent.
+    /// Fraction in the all-neutral microstate at `ph` (ideal activities). For a zwitterion
+    /// this is small even where the mean charge is zero.
     pub fn fraction_neutral(&self, ph: f64) -> f64 {
-        self.sites.iter().map(|s| s.fraction_neutral(ph)).product()
+        self.state(ph).fraction_neutral
     }
 
-    /// Everything the report needs about this solute at `ph`, ideal activities.
+    /// Everything the report needs about this solute at `ph`, with ideal activities.
     pub fn state(&self, ph: f64) -> SoluteState {
         self.state_with(ph, &|_| 0.0)
     }
 
-    /// The state at `ph` = -log10 a(H+) when a species of charge z has activity coefficient
-    /// 10^log10_gamma(z). The constants hold for activities, so for an acid site
-    /// HA (z0) <-> A (z0 - 1): [A]/[HA] = 10^(pH - pKa) · γ(z0)/γ(z0 - 1), and for a base site
-    /// B (z0) <-> BH (z0 + 1): [BH]/[B] = 10^(pKa - pH) · γ(z0)/γ(z0 + 1). z0 is the fixed
-    /// charge: each site's forms are taken to carry it (the sites stay independent).
+    /// State at `ph` = -log10 a(H+), with `log10_gamma(z)` the log10 activity coefficient of
+    /// a species of total charge z (fixed charge included). Fractions are of concentrations:
+    /// a microstate of charge z weighs 10^(its mass-action term) / γ_z, derived in
+    /// `microstates.rs`.
     pub fn state_with(&self, ph: f64, log10_gamma: &dyn Fn(i32) -> f64) -> SoluteState {
-        let z0 = self.fixed_charge.round() as i32;
-        let shifted: Vec<Site> = self
-            .sites
-            .iter()
-            .map(|s| {
-                // Moving the pKa by the γ ratio turns the activity ratio into a
-                // concentration ratio; the neutral/charged split then follows as usual.
-                let shift = match s.kind {
-                    SiteKind::Acid => log10_gamma(z0 - 1) - log10_gamma(z0),
-                    SiteKind::Base => log10_gamma(z0) - log10_gamma(z0 + 1),
-                };
-                Site {
-                    pka: s.pka + shift,
-                    ..*s
-                }
-            })
-            .collect();
+        let fixed = self.fixed_charge.round() as i32;
+        let d = microstates::distribution(&self.sites, &self.couplings, fixed, ph, log10_gamma);
         SoluteState {
-            mean_charge: self.fixed_charge
-                + shifted
-                    .iter()
-                    .map(|s| s.charge() * s.fraction_ionized(ph))
-                    .sum::<f64>(),
-            fraction_neutral: shifted.iter().map(|s| s.fraction_neutral(ph)).product(),
-            fraction_ionized: shifted.iter().map(|s| s.fraction_ionized(ph)).collect(),
+            mean_charge: self.fixed_charge + d.mean_site_charge,
+            fraction_neutral: d.fraction_neutral,
+            fraction_ionized: d.fraction_ionized,
         }
+    }
+
+    /// Macroscopic pKa values, in the order the protons come off.
+    pub fn macro_pkas(&self) -> Vec<f64> {
+        microstates::macro_pkas(&self.sites, &self.couplings)
     }
 }
 

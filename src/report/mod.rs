@@ -7,9 +7,25 @@ use tabled::{Table, Tabled};
 
 use crate::error::{Error, Result};
 
+pub mod ionization;
+pub mod plot;
+pub mod svg;
+
 /// An aligned table of `rows` in the project's look.
 pub fn table<T: Tabled>(rows: &[T]) -> String {
     let mut t = Table::new(rows);
+    t.with(Style::rounded());
+    format!("{t}\n")
+}
+
+/// An aligned table with columns known only at run time (one per compound, say).
+pub fn grid(header: Vec<String>, rows: Vec<Vec<String>>) -> String {
+    let mut b = tabled::builder::Builder::default();
+    b.push_record(header);
+    for row in rows {
+        b.push_record(row);
+    }
+    let mut t = b.build();
     t.with(Style::rounded());
     format!("{t}\n")
 }

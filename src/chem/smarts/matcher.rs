@@ -195,7 +195,15 @@ impl<'a, 'm> Context<'a, 'm> {
             }
             AtomPrim::Isotope(n) => atom.isotope.unwrap_or(0) == n,
             AtomPrim::Charge(c) => atom.charge == c,
-            AtomPrim::TotalH(n) => atom.hydrogens() == n,
+            // RDKit counts hydrogens kept as atoms (`[2H]`) too: `[CH1]` matches the C of
+            // `[2H]C(Cl)(Cl)Cl` (checked with RDKit 2026.09.1).
+            AtomPrim::TotalH(n) => {
+                let kept = t.neighbours[m]
+                    .iter()
+                    .filter(|&&(nb, _)| mol.atoms[nb].element == 1)
+                    .count();
+                atom.hydrogens() as usize + kept == n as usize
+            }
             // RDKit 2026.09 counts bracket hydrogens as implicit too (checked: `[h3]` matches
             // the N of C[NH3+]), so with hydrogens folded into atoms `h` is the total count.
             AtomPrim::ImplicitH(n) => count(n, atom.hydrogens() as usize),
