@@ -80,6 +80,7 @@ impl Profile {
                             Kind::Base => SiteKind::Base,
                         },
                         pka: s.pka,
+                        dpka_dt: None,
                     })
                     .collect();
                 Protolyte::new(amount_mol, sites, parent.permanent_charge as f64)

@@ -24,6 +24,11 @@ pub const MIGRATIONS: &[(u32, &str, &str)] = &[
         "substituents",
         include_str!("../../migrations/0003_substituents.sql"),
     ),
+    (
+        4,
+        "reagents",
+        include_str!("../../migrations/0004_reagents.sql"),
+    ),
 ];
 
 /// Applies, in order, every migration the store has not recorded (by version, not by the

@@ -7,6 +7,7 @@
 pub mod builtin;
 pub mod measured;
 pub mod migrate;
+pub mod reagents;
 pub mod substituents;
 
 use std::path::{Path, PathBuf};
