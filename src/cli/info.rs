@@ -6,7 +6,8 @@ use std::path::PathBuf;
 use serde::Serialize;
 use tabled::Tabled;
 
-use super::{Cli, Format, input};
+use super::batch::{self, Entry};
+use super::{Cli, Format};
 use crate::chem::components::split;
 use crate::chem::formula::{formula, hill_formula_of, molar_mass};
 use crate::chem::molecule::Molecule;
@@ -24,6 +25,9 @@ pub struct Args {
     /// Ignore handbook values (logP here) and use the estimates alone.
     #[arg(long)]
     pub estimate_only: bool,
+    /// Worker threads for `--input` (default: all cores).
+    #[arg(long, value_name = "N", value_parser = clap::value_parser!(u16).range(1..))]
+    pub jobs: Option<u16>,
 }
 
 /// One component of the input.
@@ -105,36 +109,31 @@ pub fn describe_with(smiles: &str, estimate_only: bool) -> Result<Info> {
     })
 }
 
-pub fn run(args: &Args, cli: &Cli) -> Result<String> {
-    let batch = args.input.is_some();
-    let mut list = args.smiles.clone();
-    if let Some(path) = &args.input {
-        list.extend(input::read_smiles_file(path)?);
+/// The result row of a structure that could not be read.
+fn failed(smiles: &str, error: String) -> Info {
+    Info {
+        smiles: smiles.to_string(),
+        formula: None,
+        molar_mass: None,
+        charge: None,
+        components: vec![],
+        logp: None,
+        logp_source: None,
+        error: Some(error),
     }
-    if list.is_empty() {
-        return Err(Error::Input(
-            "give at least one SMILES, or --input FILE".into(),
-        ));
+}
+
+/// One batch row: its description, or its error in the row.
+pub fn describe_entry(entry: &Entry, estimate_only: bool) -> Info {
+    match &entry.error {
+        Some(e) => failed(&entry.smiles, e.clone()),
+        None => describe_with(&entry.smiles, estimate_only)
+            .unwrap_or_else(|e| failed(&entry.smiles, e.to_string())),
     }
-    let mut infos = Vec::with_capacity(list.len());
-    for smiles in &list {
-        match describe_with(smiles, args.estimate_only) {
-            Ok(info) => infos.push(info),
-            // Typed on the command line: stop and point at the problem. From a file: keep going.
-            Err(e) if !batch => return Err(e),
-            Err(e) => infos.push(Info {
-                smiles: smiles.clone(),
-                formula: None,
-                molar_mass: None,
-                charge: None,
-                components: vec![],
-                logp: None,
-                logp_source: None,
-                error: Some(e.to_string()),
-            }),
-        }
-    }
-    let rows: Vec<Row> = infos
+}
+
+fn rows(infos: &[Info]) -> Vec<Row> {
+    infos
         .iter()
         .map(|i| Row {
             smiles: i.smiles.clone(),
@@ -156,11 +155,42 @@ pub fn run(args: &Args, cli: &Cli) -> Result<String> {
                     .join(", "),
             },
         })
-        .collect();
+        .collect()
+}
+
+pub fn run(args: &Args, cli: &Cli) -> Result<String> {
+    if let Some(path) = &args.input {
+        let opts = batch::Options {
+            jobs: args.jobs.map(usize::from),
+            progress: true,
+        };
+        let mut sink = batch::Sink::new(cli.format, std::io::BufWriter::new(std::io::stdout()));
+        batch::run(
+            &args.smiles,
+            path,
+            &opts,
+            |entry| describe_entry(entry, args.estimate_only),
+            |infos: &[Info]| sink.write(infos, || rows(infos), String::new),
+        )?;
+        batch::quiet_on_closed_pipe(sink.finish())?;
+        return Ok(String::new());
+    }
+    if args.smiles.is_empty() {
+        return Err(Error::Input(
+            "give at least one SMILES, or --input FILE".into(),
+        ));
+    }
+    // Typed on the command line: stop at the first bad structure and point at it.
+    let infos = args
+        .smiles
+        .iter()
+        .map(|smiles| describe_with(smiles, args.estimate_only))
+        .collect::<Result<Vec<_>>>()?;
+    let rows = rows(&infos);
     match cli.format {
         Format::Table => Ok(report::table(&rows)),
         Format::Csv => report::csv(&rows),
-        Format::Json if infos.len() == 1 && !batch => report::json(&infos[0]),
+        Format::Json if infos.len() == 1 => report::json(&infos[0]),
         Format::Json => report::json(&infos),
         Format::Jsonl => report::jsonl(&infos),
     }

@@ -2,6 +2,7 @@
 //! holds the shared flags and dispatches.
 
 pub mod adjust;
+pub mod batch;
 pub mod curve;
 pub mod db;
 pub mod demo;

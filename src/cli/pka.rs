@@ -5,7 +5,8 @@ use std::path::PathBuf;
 use serde::Serialize;
 use tabled::Tabled;
 
-use super::{Cli, Format, input, open_store};
+use super::batch::{self, Entry};
+use super::{Cli, Format, open_store};
 use crate::acidity::interplay::SiteConstant;
 use crate::acidity::measured::Origin;
 use crate::acidity::{Handbook, Profile, Site};
@@ -23,6 +24,9 @@ pub struct Args {
     /// Use the group estimates only, ignoring stored measured values.
     #[arg(long)]
     pub estimate_only: bool,
+    /// Worker threads for `--input` (default: all cores).
+    #[arg(long, value_name = "N", value_parser = clap::value_parser!(u16).range(1..))]
+    pub jobs: Option<u16>,
 }
 
 /// The JSON object for one input structure (design §5).
@@ -138,35 +142,58 @@ fn notes(results: &[PkaResult]) -> String {
         .collect()
 }
 
-pub fn run(args: &Args, cli: &Cli) -> Result<String> {
-    let batch = args.input.is_some();
-    let mut list = args.smiles.clone();
-    if let Some(path) = &args.input {
-        list.extend(input::read_smiles_file(path)?);
+/// The result row of a structure that could not be read.
+fn failed(smiles: &str, error: String) -> PkaResult {
+    PkaResult {
+        smiles: smiles.to_string(),
+        sites: vec![],
+        origin: Origin::Estimate,
+        notes: vec![],
+        error: Some(error),
+        macro_pka: vec![],
+        site_constants: vec![],
+        note: None,
     }
-    if list.is_empty() {
+}
+
+/// One batch row: its sites, or its error in the row.
+pub fn annotate_entry(entry: &Entry, handbook: &Handbook) -> PkaResult {
+    match &entry.error {
+        Some(e) => failed(&entry.smiles, e.clone()),
+        None => annotate(&entry.smiles, handbook)
+            .unwrap_or_else(|e| failed(&entry.smiles, e.to_string())),
+    }
+}
+
+pub fn run(args: &Args, cli: &Cli) -> Result<String> {
+    if args.smiles.is_empty() && args.input.is_none() {
         return Err(Error::Input(
             "give at least one SMILES, or --input FILE".into(),
         ));
     }
     let handbook = Handbook::from_store(&open_store(&cli.db)?, args.estimate_only)?;
-    let mut results = Vec::with_capacity(list.len());
-    for smiles in &list {
-        match annotate(smiles, &handbook) {
-            Ok(r) => results.push(r),
-            Err(e) if !batch => return Err(e),
-            Err(e) => results.push(PkaResult {
-                smiles: smiles.clone(),
-                sites: vec![],
-                origin: Origin::Estimate,
-                notes: vec![],
-                error: Some(e.to_string()),
-                macro_pka: vec![],
-                site_constants: vec![],
-                note: None,
-            }),
-        }
+    if let Some(path) = &args.input {
+        let opts = batch::Options {
+            jobs: args.jobs.map(usize::from),
+            progress: true,
+        };
+        let mut sink = batch::Sink::new(cli.format, std::io::BufWriter::new(std::io::stdout()));
+        batch::run(
+            &args.smiles,
+            path,
+            &opts,
+            |entry| annotate_entry(entry, &handbook),
+            |results: &[PkaResult]| sink.write(results, || rows(results), || notes(results)),
+        )?;
+        batch::quiet_on_closed_pipe(sink.finish())?;
+        return Ok(String::new());
     }
+    // Typed on the command line: stop at the first bad structure and point at it.
+    let results = args
+        .smiles
+        .iter()
+        .map(|smiles| annotate(smiles, &handbook))
+        .collect::<Result<Vec<_>>>()?;
     match cli.format {
         Format::Table => Ok(report::table(&rows(&results)) + &notes(&results)),
         Format::Csv => report::csv(&rows(&results)),
