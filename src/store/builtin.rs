@@ -1,7 +1,7 @@
 //! The built-in tables: `data/*.csv` embedded at build time, loaded into `builtin_*` tables
 //! when the store's recorded data version differs from this program's.
 
-use rusqlite::{Connection, params};
+use rusqlite::{Connection, OptionalExtension, TransactionBehavior, params};
 use serde::Deserialize;
 
 use crate::error::{Error, Result};
@@ -54,17 +54,22 @@ struct GroupRow {
 /// Rewrites the built-in tables if the store's data version is not this build's.
 pub fn refresh(conn: &mut Connection) -> Result<()> {
     let version = data_version();
-    let stored: Option<String> = conn
-        .query_row(
+    let stored = |c: &Connection| -> Result<Option<String>> {
+        Ok(c.query_row(
             "SELECT value FROM store_meta WHERE key = 'data_version'",
             [],
             |r| r.get(0),
         )
-        .ok();
-    if stored.as_deref() == Some(version.as_str()) {
+        .optional()?)
+    };
+    if stored(conn)?.as_deref() == Some(version.as_str()) {
         return Ok(());
     }
-    let tx = conn.transaction()?;
+    // Take the write lock, then look again: another process may have refreshed meanwhile.
+    let tx = conn.transaction_with_behavior(TransactionBehavior::Immediate)?;
+    if stored(&tx)?.as_deref() == Some(version.as_str()) {
+        return Ok(());
+    }
     tx.execute("DELETE FROM builtin_groups", [])?;
     {
         let mut insert = tx.prepare(

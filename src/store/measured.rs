@@ -240,7 +240,12 @@ impl Store {
     /// rows of the same structure (one compound's constants are given together). Returns the
     /// new row ids and how many earlier rows were replaced.
     pub fn put_user_measured(&self, entries: &[UserEntry]) -> Result<(Vec<i64>, usize)> {
-        let tx = self.connection().unchecked_transaction()?;
+        // Immediate: a second process adding at the same time waits for the lock (busy
+        // timeout) instead of failing half-way.
+        let tx = rusqlite::Transaction::new_unchecked(
+            self.connection(),
+            rusqlite::TransactionBehavior::Immediate,
+        )?;
         let mut ids = Vec::new();
         let mut replaced = 0;
         let mut done_keys: Vec<String> = Vec::new();

@@ -3,7 +3,7 @@
 //! in `schema_migrations`, so a store made by an older phdose upgrades in place and the user's
 //! tables are carried along untouched.
 
-use rusqlite::Connection;
+use rusqlite::{Connection, TransactionBehavior};
 
 use crate::error::{Error, Result};
 
@@ -57,7 +57,17 @@ pub fn migrate(conn: &mut Connection) -> Result<usize> {
     }
     let mut applied = 0;
     for &(version, name, sql) in MIGRATIONS.iter().filter(|m| !recorded.contains(&m.0)) {
-        let tx = conn.transaction()?;
+        // Immediate: take the write lock first, then look again, so two processes opening a new
+        // store at once apply each migration once.
+        let tx = conn.transaction_with_behavior(TransactionBehavior::Immediate)?;
+        let done: bool = tx.query_row(
+            "SELECT EXISTS (SELECT 1 FROM schema_migrations WHERE version = ?1)",
+            [version],
+            |r| r.get(0),
+        )?;
+        if done {
+            continue;
+        }
         tx.execute_batch(sql)
             .map_err(|e| Error::Store(format!("migration {version:04}_{name} failed: {e}")))?;
         tx.execute(

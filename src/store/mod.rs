@@ -88,8 +88,19 @@ impl Store {
                 tables.join(", ")
             )));
         }
-        migrate::migrate(&mut conn)?;
-        builtin::refresh(&mut conn)?;
+        if path != Path::new(":memory:") {
+            check_intact(&conn, path)?;
+            // WAL lets readers run beside a writer; with the busy timeout, two phdose processes
+            // writing at once queue instead of failing (set only after the checks above, since
+            // it writes the file header).
+            retry_busy(|| {
+                conn.pragma_update_and_check(None, "journal_mode", "WAL", |r| {
+                    r.get::<_, String>(0)
+                })
+            })?;
+        }
+        retry_busy(|| migrate::migrate(&mut conn))?;
+        retry_busy(|| builtin::refresh(&mut conn))?;
         Ok(Store {
             conn,
             path: path.to_path_buf(),
@@ -132,6 +143,49 @@ impl Store {
     /// The underlying connection, for the other store modules.
     pub fn connection(&self) -> &Connection {
         &self.conn
+    }
+}
+
+/// Refuses a damaged database file before anything is written to it: SQLite's quick check reads
+/// every page, so a truncated or overwritten file is reported here, not half-way through an
+/// upgrade.
+fn check_intact(conn: &Connection, path: &Path) -> Result<()> {
+    let damaged = |detail: String| {
+        Error::Store(format!(
+            "{} is damaged ({detail}); it was left untouched — restore it from a copy (`phdose \
+             db export` writes your values as CSV) or pass another --db PATH",
+            path.display()
+        ))
+    };
+    let report: Vec<String> = conn
+        .prepare("PRAGMA quick_check(3)")
+        .and_then(|mut s| s.query_map([], |r| r.get(0))?.collect())
+        .map_err(|e| damaged(e.to_string()))?;
+    match report.as_slice() {
+        [ok] if ok == "ok" => Ok(()),
+        lines => Err(damaged(lines.join("; "))),
+    }
+}
+
+/// Whether an error is another process holding the database lock beyond the busy timeout
+/// (or a read snapshot gone stale under WAL), which is worth trying again.
+fn is_busy(e: &Error) -> bool {
+    matches!(e, Error::Store(m) if m.contains("database is locked") || m.contains("database table is locked"))
+}
+
+/// Runs `f` again (up to 5 times, with a short pause) while the database is busy.
+pub fn retry_busy<T, E: Into<Error>>(
+    mut f: impl FnMut() -> std::result::Result<T, E>,
+) -> Result<T> {
+    let mut attempt = 0;
+    loop {
+        match f().map_err(Into::into) {
+            Err(e) if attempt < 5 && is_busy(&e) => {
+                attempt += 1;
+                std::thread::sleep(std::time::Duration::from_millis(20 * attempt));
+            }
+            other => return other,
+        }
     }
 }
 
