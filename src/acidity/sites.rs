@@ -6,6 +6,7 @@ use serde::Serialize;
 
 use super::group::{Group, Kind};
 use crate::chem::molecule::Molecule;
+use crate::chem::smarts::Target;
 
 /// One ionizable atom with its pKa estimate.
 #[derive(Debug, Clone, PartialEq, Serialize)]
@@ -25,8 +26,10 @@ pub struct Site {
 /// The sites of `mol` under `groups` (table order is priority), sorted by atom index.
 pub fn find_sites(mol: &Molecule, groups: &[Group]) -> Vec<Site> {
     let mut claimed: Vec<Option<usize>> = vec![None; mol.atoms.len()];
+    // Ring facts and sorted neighbours once for the whole table, not once per pattern.
+    let target = Target::new(mol);
     for (g, group) in groups.iter().enumerate() {
-        for m in group.pattern.matches(mol) {
+        for m in group.pattern.matches_in(&target) {
             let atom = m[group.site];
             if claimed[atom].is_none() {
                 claimed[atom] = Some(g);

@@ -8,6 +8,8 @@
 //! sodium (negative), so `CC[NH3+]` is ethylamine plus one equivalent of HCl. Charges that no
 //! proton can remove (quaternary N, nitro groups) stay as the parent's permanent charge.
 
+use std::sync::OnceLock;
+
 use serde::Deserialize;
 
 use super::formula::hill_formula_of;
@@ -56,12 +58,19 @@ pub struct Compound {
     pub balanced_with: Option<String>,
 }
 
-fn counterion_table() -> Result<Vec<CounterionRow>> {
-    csv::ReaderBuilder::new()
-        .comment(Some(b'#'))
-        .from_reader(COUNTERIONS_CSV.as_bytes())
-        .deserialize()
-        .collect::<std::result::Result<_, _>>()
+/// The counter-ion table, read once per process (batch runs split every row).
+fn counterion_table() -> Result<&'static [CounterionRow]> {
+    static TABLE: OnceLock<std::result::Result<Vec<CounterionRow>, String>> = OnceLock::new();
+    TABLE
+        .get_or_init(|| {
+            csv::ReaderBuilder::new()
+                .comment(Some(b'#'))
+                .from_reader(COUNTERIONS_CSV.as_bytes())
+                .deserialize()
+                .collect::<std::result::Result<_, _>>()
+                .map_err(|e| e.to_string())
+        })
+        .as_deref()
         .map_err(|e| Error::Internal(format!("data/counterions.csv: {e}")))
 }
 

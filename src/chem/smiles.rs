@@ -18,6 +18,12 @@ use std::collections::HashMap;
 
 const WHAT: &str = "SMILES";
 
+/// The longest SMILES phdose reads. purr reads a chain by recursion (a few hundred bytes of
+/// stack per atom) and ring perception grows with the cube of the ring atoms, so a bound keeps
+/// both safe on a worker thread; the compounds of a workup are far shorter (common practice:
+/// drug-like molecules stay under ~100 heavy atoms, a few hundred characters).
+pub const MAX_SMILES_LEN: usize = 1000;
+
 /// For each atom: (neighbour, bond index), as in `Molecule::adjacency`.
 type Adjacency = Vec<Vec<(usize, usize)>>;
 
@@ -33,6 +39,18 @@ impl Molecule {
     pub fn from_smiles(text: &str) -> Result<Molecule, ParseError> {
         if text.trim().is_empty() {
             return Err(ParseError::new(WHAT, text, 0, "empty SMILES"));
+        }
+        if text.len() > MAX_SMILES_LEN {
+            let at = (0..=MAX_SMILES_LEN)
+                .rev()
+                .find(|&i| text.is_char_boundary(i))
+                .unwrap_or(0);
+            return Err(ParseError::new(
+                WHAT,
+                text,
+                at,
+                format!("longer than {MAX_SMILES_LEN} characters"),
+            ));
         }
         let (graph, trace) = read_graph(text)?;
         let position = |i: usize| byte_offset(text, trace.atom(i).map_or(0, |r| r.start));

@@ -10,6 +10,12 @@ use super::query::{AtomPrim, BondExpr, BondPrim, QueryGraph};
 use super::target::Target;
 use crate::chem::molecule::Order;
 
+/// Atom placements one matching call may try. Dot-separated parts can be placed in every order
+/// (`*.*.*.*.*.*` on 30 atoms is 30^6 placements), so a search stops here and reports what it
+/// found; the group and atom-type tables need a few thousand at most on drug-sized molecules.
+/// (RDKit bounds the same search by stopping after 1,000 matches by default.)
+const STEP_BUDGET: usize = 2_000_000;
+
 const UNKNOWN: u8 = 0;
 const YES: u8 = 1;
 const NO: u8 = 2;
@@ -23,6 +29,8 @@ pub(crate) struct Context<'a, 'm> {
     memo: Vec<Vec<u8>>,
     /// Per recursive graph: does it match anchored at each molecule atom.
     anchored: Vec<Vec<u8>>,
+    /// Placements tried so far, against `STEP_BUDGET`.
+    steps: usize,
 }
 
 impl<'a, 'm> Context<'a, 'm> {
@@ -39,6 +47,7 @@ impl<'a, 'm> Context<'a, 'm> {
             recursive,
             memo,
             anchored: vec![vec![UNKNOWN; n]; recursive.len()],
+            steps: 0,
         }
     }
 
@@ -121,6 +130,10 @@ impl<'a, 'm> Context<'a, 'm> {
         m: usize,
         report: &mut dyn FnMut(&[usize]) -> bool,
     ) -> bool {
+        self.steps += 1;
+        if self.steps > STEP_BUDGET {
+            return true;
+        }
         if state.used[m] || !self.atom_ok(state.id, k, m) {
             return false;
         }

@@ -336,4 +336,15 @@ mod tests {
         assert_eq!(mapped.atom_maps(), vec![Some(1), Some(2)]);
         assert_eq!(mapped.matches(&acid), vec![vec![1, 2]]);
     }
+
+    #[test]
+    fn many_dot_separated_parts_end_within_the_step_budget() {
+        // Found by fuzzing: ten free atoms can be placed in 20^10 orders. The search stops
+        // after STEP_BUDGET placements with what it found instead of running for hours.
+        let mol = Molecule::from_smiles("CCCCCCCCCCCCCCCCCCCC").unwrap();
+        let p = Pattern::parse("*.*.*.***.*.*.*.*").unwrap();
+        let found = p.matches(&mol);
+        assert!(!found.is_empty());
+        assert!(found.iter().all(|m| m.len() == 10));
+    }
 }
