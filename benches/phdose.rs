@@ -94,7 +94,17 @@ fn benches(c: &mut Criterion) {
         argv.extend(["--solute".into(), s.into(), "1mmol".into()]);
     }
     argv.extend(
-        ["--water", "50mL", "--to-ph", "8", "--reagent", "naoh", "--stock", "1M"].map(String::from),
+        [
+            "--water",
+            "50mL",
+            "--to-ph",
+            "8",
+            "--reagent",
+            "naoh",
+            "--stock",
+            "1M",
+        ]
+        .map(String::from),
     );
     let cli = Cli::try_parse_from(&argv).unwrap();
     let Command::Adjust(args) = &cli.command else {

@@ -48,10 +48,7 @@ fn two_processes_adding_at_once_lose_nothing() {
             std::thread::spawn(move || {
                 for n in 1..=EACH {
                     let smiles = format!("{}{end}", "C".repeat(n));
-                    let o = phdose(
-                        &db,
-                        &["db", "add", &smiles, "--pka", pka, "--kind", kind],
-                    );
+                    let o = phdose(&db, &["db", "add", &smiles, "--pka", pka, "--kind", kind]);
                     ok(&o);
                 }
             })
@@ -142,7 +139,11 @@ fn damaged_files_are_refused_and_left_byte_identical() {
             assert_eq!(o.status.code(), Some(1), "{what} {args:?}: {err}");
             assert!(err.contains("untouched"), "{what}: {err}");
             assert!(!err.contains("panicked"), "{what}: {err}");
-            assert_eq!(std::fs::read(&db).unwrap(), bytes, "{what} changed by {args:?}");
+            assert_eq!(
+                std::fs::read(&db).unwrap(),
+                bytes,
+                "{what} changed by {args:?}"
+            );
         }
     }
 }
@@ -168,7 +169,10 @@ fn a_store_from_migrations_0001_0002_upgrades_with_the_users_rows_intact() {
     let d = temp_dir("upgrade");
     let db = d.join("v2.sqlite");
     std::fs::copy(
-        concat!(env!("CARGO_MANIFEST_DIR"), "/tests/reference/store_v2.sqlite"),
+        concat!(
+            env!("CARGO_MANIFEST_DIR"),
+            "/tests/reference/store_v2.sqlite"
+        ),
         &db,
     )
     .unwrap();
@@ -215,7 +219,10 @@ fn export_then_import_round_trips_full_precision_and_any_text() {
             "line \"one\", ünïcode; ∆pH",
         ],
     ));
-    ok(&phdose(&a, &["db", "add", "CCN(CC)CC", "--pka", "base:10.75"]));
+    ok(&phdose(
+        &a,
+        &["db", "add", "CCN(CC)CC", "--pka", "base:10.75"],
+    ));
     let first = ok(&phdose(&a, &["db", "export"]));
     let file = d.join("values.csv");
     std::fs::write(&file, &first).unwrap();
@@ -223,6 +230,14 @@ fn export_then_import_round_trips_full_precision_and_any_text() {
     ok(&phdose(&b, &["db", "import", file.to_str().unwrap()]));
     assert_eq!(ok(&phdose(&b, &["db", "export"])), first);
     // The exported text reads back as the very same double.
-    let pka: f64 = first.lines().nth(1).unwrap().split(',').nth(2).unwrap().parse().unwrap();
+    let pka: f64 = first
+        .lines()
+        .nth(1)
+        .unwrap()
+        .split(',')
+        .nth(2)
+        .unwrap()
+        .parse()
+        .unwrap();
     assert_eq!(pka, 9.987654321098765, "{first}");
 }

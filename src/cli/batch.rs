@@ -501,7 +501,10 @@ mod tests {
         assert_eq!(v, vec![1, 2, 3, 4]);
         let mut buf = Vec::new();
         Sink::new(Format::Json, &mut buf).finish().unwrap();
-        assert_eq!(serde_json::from_slice::<Vec<u32>>(&buf).unwrap(), Vec::<u32>::new());
+        assert_eq!(
+            serde_json::from_slice::<Vec<u32>>(&buf).unwrap(),
+            Vec::<u32>::new()
+        );
     }
 
     #[test]

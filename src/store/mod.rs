@@ -94,9 +94,7 @@ impl Store {
             // writing at once queue instead of failing (set only after the checks above, since
             // it writes the file header).
             retry_busy(|| {
-                conn.pragma_update_and_check(None, "journal_mode", "WAL", |r| {
-                    r.get::<_, String>(0)
-                })
+                conn.pragma_update_and_check(None, "journal_mode", "WAL", |r| r.get::<_, String>(0))
             })?;
         }
         retry_busy(|| migrate::migrate(&mut conn))?;
