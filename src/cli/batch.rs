@@ -92,6 +92,9 @@ impl Rows {
             }
             skipped += 1;
         }
+        if head == TOO_LONG {
+            head.push('\n');
+        }
         let shape = if head.trim_start().starts_with('{') {
             Shape::Jsonl
         } else if head.split(',').any(|h| is_smiles_header(h)) {
@@ -158,6 +161,9 @@ impl Rows {
                         return Ok(None);
                     }
                     self.line += 1;
+                    if text.trim_end() == TOO_LONG {
+                        return Ok(Some(too_long(self.line)));
+                    }
                     let t = text.trim();
                     if t.is_empty() || t.starts_with('#') {
                         continue;
@@ -170,6 +176,9 @@ impl Rows {
                         return Ok(None);
                     }
                     self.line += 1;
+                    if text.trim_end() == TOO_LONG {
+                        return Ok(Some(too_long(self.line)));
+                    }
                     if text.trim().is_empty() {
                         continue;
                     }
@@ -222,15 +231,52 @@ fn is_smiles_header(h: &str) -> bool {
     h.trim().trim_matches('"').eq_ignore_ascii_case("smiles")
 }
 
-/// Reads one line; bytes that are not UTF-8 are replaced (the row then fails as a SMILES, with
-/// its position, instead of stopping the run).
+/// Longest input line kept; a longer one becomes an error row (memory stays flat even on a
+/// file without line breaks).
+const MAX_LINE: usize = 1 << 20;
+
+/// Reads one line into `text` and returns the bytes consumed (0 at the end). Bytes that are
+/// not UTF-8 are replaced (the row then fails as a SMILES, with its position, instead of
+/// stopping the run). A line over `MAX_LINE` is skipped to its end and `text` set to the
+/// marker `TOO_LONG`.
 fn read_line_lossy(src: &mut dyn BufRead, text: &mut String) -> Result<usize> {
+    let io_err = |e: io::Error| Error::Input(format!("reading input: {e}"));
     let mut bytes = Vec::new();
-    let n = src
+    let mut n = src
+        .take(MAX_LINE as u64)
         .read_until(b'\n', &mut bytes)
-        .map_err(|e| Error::Input(format!("reading input: {e}")))?;
+        .map_err(io_err)?;
+    if n == MAX_LINE && bytes.last() != Some(&b'\n') {
+        loop {
+            let buf = src.fill_buf().map_err(io_err)?;
+            if buf.is_empty() {
+                break;
+            }
+            let (used, end) = match buf.iter().position(|&b| b == b'\n') {
+                Some(i) => (i + 1, true),
+                None => (buf.len(), false),
+            };
+            src.consume(used);
+            n += used;
+            if end {
+                break;
+            }
+        }
+        text.push_str(TOO_LONG);
+        return Ok(n);
+    }
     text.push_str(&String::from_utf8_lossy(&bytes));
     Ok(n)
+}
+
+/// Stands for a line too long to keep (a NUL cannot occur in a SMILES or JSON line).
+const TOO_LONG: &str = "\0too long\0";
+
+fn too_long(line: u64) -> Entry {
+    Entry::bad(
+        "",
+        format!("line {line}: longer than {MAX_LINE} bytes, skipped"),
+    )
 }
 
 fn json_entry(line: &str, number: u64) -> Entry {
@@ -375,6 +421,8 @@ where
 {
     let pool = rayon::ThreadPoolBuilder::new()
         .num_threads(opts.jobs.unwrap_or(0))
+        // purr reads a SMILES chain by recursion; give workers the main thread's room.
+        .stack_size(16 << 20)
         .build()
         .map_err(|e| Error::Internal(format!("thread pool: {e}")))?;
     let counter = Arc::new(AtomicU64::new(0));
@@ -477,6 +525,33 @@ mod tests {
             n += 1;
         }
         assert_eq!(n, 3);
+    }
+
+    #[test]
+    fn a_line_too_long_becomes_an_error_row_and_reading_goes_on() {
+        let mut text = "CCO\n".to_string();
+        text.push_str(&"C".repeat(MAX_LINE + 10));
+        text.push_str("\nCCN\n");
+        let e = entries(&text);
+        assert_eq!(e.len(), 3);
+        assert!(
+            e[1].error.as_deref().unwrap().contains("line 2"),
+            "{:?}",
+            e[1]
+        );
+        assert_eq!(e[2], Entry::ok("CCN"));
+        // Exactly at the limit with its line break is still read.
+        let at_limit = format!("{}\n", "C".repeat(MAX_LINE - 1));
+        assert!(entries(&at_limit)[0].error.is_none());
+        // A first line too long still leaves the rest readable.
+        let first = format!("{}\nCCN\n", "C".repeat(MAX_LINE + 1));
+        let e = entries(&first);
+        assert!(
+            e[0].error.as_deref().unwrap().contains("line 1"),
+            "{:?}",
+            e[0]
+        );
+        assert_eq!(e[1], Entry::ok("CCN"));
     }
 
     #[test]
