@@ -76,6 +76,14 @@ impl<'a, 'm> Context<'a, 'm> {
         if graph.atoms.len() > self.target.atom_count() {
             return;
         }
+        // An atom whose element occurs nowhere in the molecule: no embedding at all.
+        if graph
+            .elements
+            .iter()
+            .any(|&e| e & self.target.elements == 0)
+        {
+            return;
+        }
         let mut state = State {
             id,
             anchor,
@@ -134,10 +142,13 @@ impl<'a, 'm> Context<'a, 'm> {
         if self.steps > STEP_BUDGET {
             return true;
         }
-        if state.used[m] || !self.atom_ok(state.id, k, m) {
+        let graph = self.graph(state.id);
+        if state.used[m]
+            || !self.target.element_in(m, graph.elements[k])
+            || !self.atom_ok(state.id, k, m)
+        {
             return false;
         }
-        let graph = self.graph(state.id);
         let target = self.target;
         let closed = graph.steps[k].closures.iter().all(|&(j, qb)| {
             target

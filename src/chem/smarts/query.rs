@@ -134,11 +134,19 @@ pub struct QueryGraph {
     pub bonds: Vec<QueryBond>,
     /// One step per atom, in written order.
     pub steps: Vec<Step>,
+    /// Per atom: the elements it can match, one bit per atomic number (all bits when the
+    /// expression does not pin the element). Lets the matcher skip most atoms untested.
+    pub elements: Vec<u128>,
 }
 
 impl QueryGraph {
     /// Builds the matching steps once all bonds are known.
     pub(crate) fn plan(&mut self) {
+        self.elements = self
+            .atoms
+            .iter()
+            .map(|a| allowed_elements(&a.expr))
+            .collect();
         self.steps = (0..self.atoms.len())
             .map(|k| {
                 let mut earlier = self
@@ -164,9 +172,36 @@ impl QueryGraph {
     }
 }
 
+/// The atomic numbers an atom expression can accept (a superset; exact for element lists).
+fn allowed_elements(expr: &AtomExpr) -> u128 {
+    match expr {
+        Expr::Prim(AtomPrim::Element { number, .. }) if *number < 128 => 1u128 << number,
+        Expr::Prim(_) | Expr::Not(_) => u128::MAX,
+        Expr::And(es) => es.iter().fold(u128::MAX, |m, e| m & allowed_elements(e)),
+        Expr::Or(es) => es.iter().fold(0, |m, e| m | allowed_elements(e)),
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn allowed_elements_follow_the_logic() {
+        let el = |n| {
+            Expr::Prim(AtomPrim::Element {
+                number: n,
+                aromatic: None,
+            })
+        };
+        let or = Expr::Or(vec![el(7), el(8)]);
+        assert_eq!(allowed_elements(&or), 1 << 7 | 1 << 8);
+        let and = Expr::And(vec![or.clone(), Expr::Prim(AtomPrim::Charge(0))]);
+        assert_eq!(allowed_elements(&and), 1 << 7 | 1 << 8);
+        assert_eq!(allowed_elements(&Expr::Not(Box::new(el(6)))), u128::MAX);
+        let with_any = Expr::Or(vec![el(6), Expr::Prim(AtomPrim::Aromatic)]);
+        assert_eq!(allowed_elements(&with_any), u128::MAX);
+    }
 
     #[test]
     fn logic_evaluates_with_short_circuit() {
@@ -202,6 +237,7 @@ mod tests {
             atoms: vec![atom(0), atom(2), atom(3)],
             bonds: vec![bond(0, 1), bond(1, 2), bond(0, 2)],
             steps: vec![],
+            elements: vec![],
         };
         g.plan();
         assert_eq!(g.steps[0].parent, None);

@@ -15,6 +15,8 @@ pub struct Target<'m> {
     smallest_ring: Vec<usize>,
     ring_bonds: Vec<usize>,
     bond_in_ring: Vec<bool>,
+    /// One bit per atomic number present.
+    pub(crate) elements: u128,
 }
 
 impl<'m> Target<'m> {
@@ -48,8 +50,14 @@ impl<'m> Target<'m> {
             .iter()
             .map(|list| list.iter().filter(|&&(_, b)| bond_in_ring[b]).count())
             .collect();
+        let elements = mol
+            .atoms
+            .iter()
+            .filter(|a| a.element < 128)
+            .fold(0u128, |m, a| m | 1 << a.element);
         Target {
             mol,
+            elements,
             neighbours,
             ring_count,
             smallest_ring,
@@ -64,6 +72,12 @@ impl<'m> Target<'m> {
 
     pub fn atom_count(&self) -> usize {
         self.mol.atoms.len()
+    }
+
+    /// Whether the element of `atom` is among the bits of `allowed`.
+    pub(crate) fn element_in(&self, atom: usize, allowed: u128) -> bool {
+        let e = self.mol.atoms[atom].element;
+        e >= 128 || allowed >> e & 1 == 1
     }
 
     /// Number of SSSR rings holding the atom.
