@@ -97,7 +97,7 @@ impl Rows {
         }
         let shape = if head.trim_start().starts_with('{') {
             Shape::Jsonl
-        } else if head.split(',').any(|h| is_smiles_header(h)) {
+        } else if head.split(',').any(is_smiles_header) {
             Shape::Csv
         } else {
             Shape::Lines
