@@ -326,17 +326,18 @@ fn find_amount(
     };
     // +1 when adding reagent raises the pH.
     let direction = if r.limit > r.start { 1.0 } else { -1.0 };
-    let past = |ph: f64| direction * (ph - target) >= 0.0;
-    let mut hi = match r.max_mol {
-        Some(max) => max,
+    let g = |mol: f64| -> Result<f64> { Ok(direction * (ph_at(mol)? - target)) };
+    let (hi, g_hi) = match r.max_mol {
+        Some(max) => (max, g(max)?),
         None => {
             // Start at a micromole per litre of layer and double: 1000 doublings cover any
             // amount a double can hold.
             let mut hi = 1e-6 * layer.volume_l;
-            let mut found = false;
+            let mut found = None;
             for _ in 0..1000 {
-                if past(ph_at(hi)?) {
-                    found = true;
+                let g_hi = g(hi)?;
+                if g_hi >= 0.0 {
+                    found = Some((hi, g_hi));
                     break;
                 }
                 hi *= 2.0;
@@ -344,30 +345,19 @@ fn find_amount(
                     break;
                 }
             }
-            if !found {
-                return Err(Error::Unreachable(unreachable_message(
-                    reagent, stock, r, target,
-                )));
-            }
-            hi
+            found.ok_or_else(|| {
+                Error::Unreachable(unreachable_message(reagent, stock, r, target))
+            })?
         }
     };
-    let mut lo = 0.0;
-    for _ in 0..2000 {
-        let mid = 0.5 * (lo + hi);
-        if mid <= lo || mid >= hi {
-            break;
-        }
-        let ph = ph_at(mid)?;
-        if (ph - target).abs() < 1e-11 {
-            return Ok(mid);
-        }
-        if past(ph) {
-            hi = mid;
-        } else {
-            lo = mid;
-        }
-    }
+    // The pH is monotone in the amount: shrink the bracket (secant steps, bisection as the
+    // fallback) until the pH is the target to 1e-11 or the amounts are neighbouring doubles.
+    let (lo, hi) = super::root::shrink(
+        g,
+        (0.0, direction * (r.start - target)),
+        (hi, g_hi),
+        |_, gx| gx.abs() < 1e-11,
+    )?;
     Ok(0.5 * (lo + hi))
 }
 

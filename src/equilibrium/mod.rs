@@ -8,6 +8,7 @@ pub mod dose;
 pub mod microstates;
 pub mod polyprotic;
 pub mod reagent;
+mod root;
 pub mod solve;
 pub mod species;
 pub mod water;

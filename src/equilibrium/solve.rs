@@ -180,25 +180,14 @@ fn bisect_ph(layer: &AqueousLayer, c: &Conditions, g: &Gammas) -> Result<f64> {
             return Err(no_balance());
         }
     }
-    // Bisect down to neighbouring doubles (about 60 halvings): the last digits matter when
-    // large, nearly cancelling solute charges meet a small [H+].
-    for _ in 0..200 {
-        let mid = 0.5 * (lo + hi);
-        if mid <= lo || mid >= hi {
-            break;
-        }
-        let r = f(mid);
-        if r.is_nan() {
-            return Err(no_balance());
-        }
-        if r == 0.0 {
-            (lo, hi) = (mid, mid);
-        } else if r > 0.0 {
-            lo = mid;
-        } else {
-            hi = mid;
-        }
-    }
+    // Down to neighbouring doubles, as bisection would end: the last digits matter when
+    // large, nearly cancelling solute charges meet a small [H+]. The residual falls with pH,
+    // so its negative rises through the root.
+    let g = |ph: f64| match f(ph) {
+        r if r.is_nan() => Err(no_balance()),
+        r => Ok(-r),
+    };
+    let (lo, hi) = super::root::shrink(g, (lo, g(lo)?), (hi, g(hi)?), |_, g| g == 0.0)?;
     Ok(0.5 * (lo + hi))
 }
 
