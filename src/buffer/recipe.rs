@@ -285,9 +285,10 @@ fn warnings(system: &BufferSystem, request: &Request, made: &Made, pkas: &[f64])
             made.equilibrium.ionic_strength
         ));
     }
-    if system.estimated {
+    if system.estimated && (request.conditions.temperature_c() - 25.0).abs() > 1e-9 {
         out.push(
-            "no temperature coefficients for an estimated system: the 25 °C constants are used"
+            "no temperature coefficients for a structure given as SMILES: its 25 °C constants are \
+             used at every temperature"
                 .into(),
         );
     }

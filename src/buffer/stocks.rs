@@ -65,8 +65,10 @@ pub fn make(system: &BufferSystem, request: &Request) -> Result<Made> {
         equilibrium: p.equilibrium,
         stocks: vec![prep(&p.acid, ma), prep(&p.base, mb)],
         water_ml: Some(water),
-        notes: vec![format!(
-            "mix the two stocks and add {water:.1} mL of water ({total_ml:.0} mL in all)"
-        )],
+        notes: vec![if water > 0.05 {
+            format!("mix the two stocks and add {water:.1} mL of water ({total_ml:.0} mL in all)")
+        } else {
+            "mix the two stocks; no water is needed".to_string()
+        }],
     })
 }

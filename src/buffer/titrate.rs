@@ -1,7 +1,7 @@
 //! Recipe (b): weigh one form, dissolve it in most of the volume, titrate with a strong acid or
 //! base stock to the pH, make up to volume. The titrant amount is the one that gives the
 //! target pH in the final volume (the bisection runs on the full equilibrium). Without a named
-//! form, every preferred form on the right side of the target is tried and the one that needs
+//! form (and for a table system), every preferred form on the right side of the target is tried and the one that needs
 //! the least titrant wins, among those the table says prep rooms titrate with that reagent.
 
 use super::mixture::{Mixture, reach};
@@ -108,6 +108,8 @@ pub fn make(system: &BufferSystem, request: &Request, catalogue: &[Reagent]) -> 
     let c = &request.conditions;
     let one_molar = StockForm::Molar(1.0);
     let forms: Vec<BufferForm> = match request.forms.as_slice() {
+        // A structure given as SMILES: the compound as written is what the user has.
+        [] if system.estimated => vec![system.forms[0].clone()],
         [] => system.default_forms().into_iter().cloned().collect(),
         [one] => vec![system.form(one)?.clone()],
         _ => {
@@ -169,7 +171,7 @@ pub fn make(system: &BufferSystem, request: &Request, catalogue: &[Reagent]) -> 
     let mut notes = vec![format!(
         "dissolve the {} in about 80 % of the volume, add the {} {} with stirring to pH {:.2}, \
          then make up to {total_ml:.0} mL with water",
-        t.form.label, t.titrant.label, reagent.name, request.ph
+        t.form.label, t.titrant.label, reagent.formula, request.ph
     )];
     if let Some(ml) = volume_ml
         && ml > 0.5 * total_ml
