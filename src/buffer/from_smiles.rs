@@ -7,6 +7,7 @@
 use super::system::{BufferForm, BufferSystem};
 use crate::acidity::measured::Origin;
 use crate::acidity::{Handbook, Kind, Profile};
+use crate::chem::components::{Compound, Parent};
 use crate::chem::elements;
 use crate::chem::formula::{formula, hill_formula_of, molar_mass};
 use crate::error::{Error, Result};
@@ -34,6 +35,68 @@ fn form(name: String, label: String, formula: String, mass: f64, cat: f64, an: f
         assumed: true,
         source: "assumed salt of the structure (phdose)".into(),
     }
+}
+
+/// The neutral parent and its HCl and sodium salts at every protonation level but the one
+/// written: the parent sits at level `bases`, HCl below it, Na for H above it.
+fn assumed_salts(
+    smiles: &str,
+    compound: &Compound,
+    parent: &Parent,
+    bases: i32,
+    steps: usize,
+    given_level: f64,
+) -> Result<Vec<BufferForm>> {
+    let mut out = Vec::new();
+    // The neutral parent sits at level `bases`; HCl below it, Na for H above it.
+    let neutral = &compound.neutral;
+    let hydrogen = weight("H")?;
+    let parent_mass: f64 = parent
+        .atoms
+        .iter()
+        .map(|&a| {
+            let atom = &neutral.atoms[a];
+            elements::atom_mass(atom.element, atom.isotope).unwrap_or(0.0)
+                + atom.hydrogens() as f64 * hydrogen
+        })
+        .sum();
+    let parent_formula = hill_formula_of(neutral, &parent.atoms);
+    let hcl = hydrogen + weight("Cl")?;
+    let na_for_h = weight("Na")? - hydrogen;
+    for level in 0..=steps as i32 {
+        if (level as f64 - given_level).abs() < 1e-9 {
+            continue;
+        }
+        let k = (level - bases) as f64;
+        let f = match level.cmp(&bases) {
+            std::cmp::Ordering::Less => form(
+                format!("hcl{}", -k),
+                format!("{} HCl salt of {smiles} (assumed)", -k),
+                format!("{parent_formula}·{}HCl", -k),
+                parent_mass - k * hcl,
+                0.0,
+                -k,
+            ),
+            std::cmp::Ordering::Equal => form(
+                "neutral".into(),
+                format!("{smiles}, neutral form (assumed)"),
+                parent_formula.clone(),
+                parent_mass,
+                0.0,
+                0.0,
+            ),
+            std::cmp::Ordering::Greater => form(
+                format!("na{k}"),
+                format!("{k} Na salt of {smiles} (assumed)"),
+                format!("{parent_formula} -{k}H +{k}Na"),
+                parent_mass + k * na_for_h,
+                k,
+                0.0,
+            ),
+        };
+        out.push(f);
+    }
+    Ok(out)
 }
 
 /// The buffer system of the structure `smiles`.
@@ -73,54 +136,14 @@ pub fn system_from_smiles(smiles: &str, handbook: &Handbook) -> Result<BufferSys
     let given_level = given.level(top);
     let mut forms = vec![given];
     if parent.permanent_charge == 0 {
-        // The neutral parent sits at level `bases`; HCl below it, Na for H above it.
-        let neutral = &compound.neutral;
-        let hydrogen = weight("H")?;
-        let parent_mass: f64 = parent
-            .atoms
-            .iter()
-            .map(|&a| {
-                let atom = &neutral.atoms[a];
-                elements::atom_mass(atom.element, atom.isotope).unwrap_or(0.0)
-                    + atom.hydrogens() as f64 * hydrogen
-            })
-            .sum();
-        let parent_formula = hill_formula_of(neutral, &parent.atoms);
-        let hcl = hydrogen + weight("Cl")?;
-        let na_for_h = weight("Na")? - hydrogen;
-        for level in 0..=pkas.len() as i32 {
-            if (level as f64 - given_level).abs() < 1e-9 {
-                continue;
-            }
-            let k = (level - bases) as f64;
-            let f = match level.cmp(&bases) {
-                std::cmp::Ordering::Less => form(
-                    format!("hcl{}", -k),
-                    format!("{} HCl salt of {smiles} (assumed)", -k),
-                    format!("{parent_formula}·{}HCl", -k),
-                    parent_mass - k * hcl,
-                    0.0,
-                    -k,
-                ),
-                std::cmp::Ordering::Equal => form(
-                    "neutral".into(),
-                    format!("{smiles}, neutral form (assumed)"),
-                    parent_formula.clone(),
-                    parent_mass,
-                    0.0,
-                    0.0,
-                ),
-                std::cmp::Ordering::Greater => form(
-                    format!("na{k}"),
-                    format!("{k} Na salt of {smiles} (assumed)"),
-                    format!("{parent_formula} -{k}H +{k}Na"),
-                    parent_mass + k * na_for_h,
-                    k,
-                    0.0,
-                ),
-            };
-            forms.push(f);
-        }
+        forms.extend(assumed_salts(
+            smiles,
+            compound,
+            parent,
+            bases,
+            pkas.len(),
+            given_level,
+        )?);
     }
     let mut sites: Vec<String> = pkas.iter().map(|p| format!("{p:.2}")).collect();
     if let Some(note) = constants.note {

@@ -23,6 +23,14 @@ pub enum Method {
 }
 
 impl Method {
+    pub fn as_str(&self) -> &'static str {
+        match self {
+            Method::Pair => "pair",
+            Method::Titrate => "titrate",
+            Method::Stocks => "stocks",
+        }
+    }
+
     pub fn parse(text: &str) -> Result<Method> {
         match text.trim().to_ascii_lowercase().as_str() {
             "pair" => Ok(Method::Pair),

@@ -103,8 +103,13 @@ fn default_titrant(role: Role) -> &'static str {
     }
 }
 
-/// Recipe (b).
-pub fn make(system: &BufferSystem, request: &Request, catalogue: &[Reagent]) -> Result<Made> {
+/// The form and titrant to use: the user's form, or the preferred form that needs the least
+/// titrant among those usually titrated with it.
+fn best_trial<'a>(
+    system: &BufferSystem,
+    request: &Request,
+    catalogue: &'a [Reagent],
+) -> Result<Trial<'a>> {
     let c = &request.conditions;
     let one_molar = StockForm::Molar(1.0);
     let forms: Vec<BufferForm> = match request.forms.as_slice() {
@@ -160,7 +165,12 @@ pub fn make(system: &BufferSystem, request: &Request, catalogue: &[Reagent]) -> 
             ))
         }));
     };
-    let t = trials.swap_remove(best);
+    Ok(trials.swap_remove(best))
+}
+
+/// Recipe (b).
+pub fn make(system: &BufferSystem, request: &Request, catalogue: &[Reagent]) -> Result<Made> {
+    let t = best_trial(system, request, catalogue)?;
     let form_mol = request.system_mol() / t.form.units;
     let reagent = t.titrant.reagent;
     let (mass_g, volume_ml, stock_molar) = match t.titrant.stock {

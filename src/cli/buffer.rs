@@ -169,10 +169,7 @@ fn table(r: &Recipe) -> String {
         r.temperature_c,
         sig(r.conc_mol_l, 3),
         fmt_volume(r.volume_ml / 1e3),
-        serde_json::to_value(r.recipe)
-            .ok()
-            .and_then(|v| v.as_str().map(str::to_string))
-            .unwrap_or_default()
+        r.recipe.as_str()
     );
     let rows: Vec<ComponentRow> = r
         .components
