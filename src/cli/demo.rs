@@ -57,7 +57,9 @@ fn wash(
         reagent: reagent.into(),
         stock: Some(stock.into()),
         // The defaults of `adjust`: Davies activities, a vented funnel.
-        conditions: Conditions::standard().with_activity(Activity::Davies).with_co2(Co2Mode::Vented),
+        conditions: Conditions::standard()
+            .with_activity(Activity::Davies)
+            .with_co2(Co2Mode::Vented),
     };
     Ok(adjust(&request, handbook, catalogue)?.remove(0))
 }
