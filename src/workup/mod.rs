@@ -3,3 +3,5 @@
 pub mod adjust;
 pub mod cautions;
 pub mod layers;
+pub mod mixture;
+pub mod washes;
