@@ -305,10 +305,7 @@ pub fn plan(request: &PlanRequest, handbook: &Handbook, catalogue: &[Reagent]) -
     let mut fractions = Vec::new();
     let mut step_layers = Vec::new();
     let mut first_step = true;
-    loop {
-        let Some(candidate) = choose_step(&mixture, &left, va, vo) else {
-            break;
-        };
+    while let Some(candidate) = choose_step(&mixture, &left, va, vo) {
         let first = mixture.layers(&water, vo, &moles, first_step)?;
         let choice = bench_dose(&first, candidate.ph, va / 2.0, conditions, catalogue)?;
         let dosed = &choice.dose;
