@@ -2,4 +2,5 @@
 
 pub mod adjust;
 pub mod cautions;
+pub mod layers;
 pub mod procedure;
