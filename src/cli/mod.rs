@@ -2,6 +2,7 @@
 //! holds the shared flags and dispatches.
 
 pub mod adjust;
+pub mod check;
 pub mod curve;
 pub mod db;
 pub mod demo;
@@ -54,6 +55,8 @@ pub enum Command {
     Adjust(adjust::Args),
     /// Fraction ionized (or mean charge) and logD against pH, as a table or an SVG figure.
     Curve(curve::Args),
+    /// Simulate a written workup (TOML procedure) step by step and report its problems.
+    Check(check::Args),
     /// A built-in workup scenario, end to end.
     Demo(demo::Args),
     /// Your own measured pKa values: add, list, remove, import, export.
@@ -79,6 +82,7 @@ pub fn run(cli: &Cli) -> Result<String> {
         Command::Pka(args) => pka::run(args, cli),
         Command::Adjust(args) => adjust::run(args, cli),
         Command::Curve(args) => curve::run(args, cli),
+        Command::Check(args) => check::run(args, cli),
         Command::Demo(args) => demo::run(args, cli),
         Command::Db(args) => db::run(args, cli),
         Command::Completions(args) => shell::completions(args),
