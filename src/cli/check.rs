@@ -24,9 +24,8 @@ pub struct Args {
 
 /// Reads the file and builds the report data (also what an HTML report starts from).
 pub fn report_for(args: &Args, cli: &Cli) -> Result<Report> {
-    let text = std::fs::read_to_string(&args.file).map_err(|e| {
-        Error::Input(format!("cannot read {}: {e}", args.file.display()))
-    })?;
+    let text = std::fs::read_to_string(&args.file)
+        .map_err(|e| Error::Input(format!("cannot read {}: {e}", args.file.display())))?;
     let store = open_store(&cli.db)?;
     let handbook = Handbook::from_store(&store, args.estimate_only)?;
     let catalogue = store.reagents()?;
@@ -163,7 +162,10 @@ fn table(r: &Report) -> String {
     } else {
         out += &format!("Problems ({}):\n", r.problems.len());
         for p in &r.problems {
-            out += &format!("  step {} (line {}): {}\n    fix: {}\n", p.step, p.line, p.message, p.fix);
+            out += &format!(
+                "  step {} (line {}): {}\n    fix: {}\n",
+                p.step, p.line, p.message, p.fix
+            );
         }
     }
     let mut cautions: Vec<&String> = r.steps.iter().flat_map(|s| s.cautions.iter()).collect();

@@ -17,7 +17,10 @@ use crate::workup::layers;
 #[derive(Debug, Clone)]
 pub enum Gone {
     /// The layer not kept at a separation.
-    Separated { kept_organic: bool, organic_on_top: bool },
+    Separated {
+        kept_organic: bool,
+        organic_on_top: bool,
+    },
     /// The pooled washes of a wash step.
     Washes { ph: Option<f64> },
     /// What an extraction step did not keep.
@@ -55,7 +58,9 @@ fn problem(step: &Step, kind: &'static str, message: String, fix: String) -> Pro
 }
 
 fn main_slot(run: &Run, compound: usize) -> Option<usize> {
-    run.slots.iter().position(|s| s.compound == compound && s.main)
+    run.slots
+        .iter()
+        .position(|s| s.compound == compound && s.main)
 }
 
 /// Moles of a compound (its main parent) in a set of layers.
@@ -75,8 +80,19 @@ fn neutral_window(p: &Protolyte, share: f64) -> Option<(f64, f64)> {
         return None;
     }
     let ok = |ph: f64| p.fraction_neutral(ph) >= share;
-    let lo = grid.iter().copied().filter(|&x| x <= best).rev().take_while(|&x| ok(x)).last()?;
-    let hi = grid.iter().copied().filter(|&x| x >= best).take_while(|&x| ok(x)).last()?;
+    let lo = grid
+        .iter()
+        .copied()
+        .filter(|&x| x <= best)
+        .rev()
+        .take_while(|&x| ok(x))
+        .last()?;
+    let hi = grid
+        .iter()
+        .copied()
+        .filter(|&x| x >= best)
+        .take_while(|&x| ok(x))
+        .last()?;
     Some((lo, hi))
 }
 
@@ -215,18 +231,37 @@ fn fix_amount(run: &Run, before: &Funnel, portion: &Portion, target: f64) -> Res
     let mut pre = before.clone();
     if pre.aqueous.is_none() {
         if !matches!(offer.stock, Stock::Solution { .. }) {
-            return Ok(format!("Dissolve more {} (or add water first).", reagent.name));
+            return Ok(format!(
+                "Dissolve more {} (or add water first).",
+                reagent.name
+            ));
         }
         // A solution stock brings its own water: start from a drop (1 µL).
-        pre.aqueous = Some(Phase::empty(super::funnel::PhaseKind::Aqueous, 1e-6, run.slots.len()));
+        pre.aqueous = Some(Phase::empty(
+            super::funnel::PhaseKind::Aqueous,
+            1e-6,
+            run.slots.len(),
+        ));
     }
     let Some(two) = pre.two_layers(&run.slots) else {
         return Ok(String::new());
     };
-    match layers::dose_with_alternatives(&two, reagent, offer, target, run.conditions(), run.catalogue) {
+    match layers::dose_with_alternatives(
+        &two,
+        reagent,
+        offer,
+        target,
+        run.conditions(),
+        run.catalogue,
+    ) {
         Ok(d) => {
             let how = match d.dose.stock_volume_l {
-                Some(v) => format!("{} of {} {}", fmt_volume(v.max(0.0)), offer.label(), reagent.name),
+                Some(v) => format!(
+                    "{} of {} {}",
+                    fmt_volume(v.max(0.0)),
+                    offer.label(),
+                    reagent.name
+                ),
                 None => format!(
                     "{} g of solid {}",
                     crate::report::sig(d.dose.reagent_mol * reagent.molar_mass_g_mol, 3),
@@ -256,6 +291,18 @@ pub fn unreachable(step: &Step, target: f64, message: &str) -> Problem {
             fmt_ph(target)
         ),
         format!("{message}."),
+    )
+}
+
+/// A solid reagent put into a funnel that holds no water.
+pub fn no_water(step: &Step) -> Problem {
+    problem(
+        step,
+        "no_water",
+        "A solid reagent goes into a funnel with no aqueous layer: it has nothing to dissolve in \
+         and does not act on the organic solution."
+            .into(),
+        "Add water first, or use a solution of the reagent.".into(),
     )
 }
 
@@ -312,7 +359,9 @@ pub fn water_left(run: &Run, step: &Step) -> Problem {
 fn next_need<'p>(run: &'p Run, step: &Step) -> Option<(bool, &'p Step)> {
     for s in run.procedure.steps.iter().skip(step.number) {
         match &s.action {
-            Action::Wash { .. } | Action::Dry { .. } | Action::Concentrate => return Some((true, s)),
+            Action::Wash { .. } | Action::Dry { .. } | Action::Concentrate => {
+                return Some((true, s));
+            }
             Action::Adjust { .. } | Action::Extract { .. } => return Some((false, s)),
             Action::Separate { .. } | Action::Combine { .. } => return None,
             Action::Add { .. } => {}
@@ -323,7 +372,13 @@ fn next_need<'p>(run: &'p Run, step: &Step) -> Option<(bool, &'p Step)> {
 
 /// A kept layer that the next steps treat as the other one (top/bottom mixed up, or the wrong
 /// word). The check then goes on as if the intended layer had been kept.
-pub fn mixup(run: &Run, step: &Step, keep: Which, keep_organic: bool, organic_on_top: bool) -> Option<Problem> {
+pub fn mixup(
+    run: &Run,
+    step: &Step,
+    keep: Which,
+    keep_organic: bool,
+    organic_on_top: bool,
+) -> Option<Problem> {
     let (need_organic, next) = next_need(run, step)?;
     if need_organic == keep_organic {
         return None;
@@ -331,7 +386,11 @@ pub fn mixup(run: &Run, step: &Step, keep: Which, keep_organic: bool, organic_on
     let kept = if keep_organic { "organic" } else { "aqueous" };
     let want = if need_organic { "organic" } else { "aqueous" };
     let solvent = run.procedure.mixture.solvent;
-    let want_pos = if need_organic == organic_on_top { "top" } else { "bottom" };
+    let want_pos = if need_organic == organic_on_top {
+        "top"
+    } else {
+        "bottom"
+    };
     let message = match keep {
         Which::Top | Which::Bottom => format!(
             "Step {} keeps the {} layer, but with {} (density {:.2} g/mL) the organic layer is the \
@@ -372,7 +431,10 @@ pub fn extraction_ph(run: &Run, step: &Step, before: &Funnel, raise: bool) -> Op
     }
     // Only when an extraction that keeps the organic layer follows.
     let next = run.procedure.steps.iter().skip(step.number).find(|s| {
-        matches!(s.action, Action::Extract { .. } | Action::Adjust { .. } | Action::Combine { .. })
+        matches!(
+            s.action,
+            Action::Extract { .. } | Action::Adjust { .. } | Action::Combine { .. }
+        )
     })?;
     if !matches!(next.action, Action::Extract { keep, .. } if keep != Which::Aqueous) {
         return None;
@@ -429,11 +491,28 @@ pub fn departures(run: &Run) -> Vec<Problem> {
         };
         let window = product_window(run).unwrap_or_else(|| "a pH where it is neutral".into());
         let major = pct >= 50.0;
-        let kind = if major { "product_discarded" } else { "product_loss" };
+        let kind = if major {
+            "product_discarded"
+        } else {
+            "product_loss"
+        };
         let (message, fix) = match &d.gone {
-            Gone::Separated { kept_organic, organic_on_top } => {
-                let (kept, other) = if *kept_organic { ("organic", "aqueous") } else { ("aqueous", "organic") };
-                let pos = |organic: bool| if organic == *organic_on_top { "top" } else { "bottom" };
+            Gone::Separated {
+                kept_organic,
+                organic_on_top,
+            } => {
+                let (kept, other) = if *kept_organic {
+                    ("organic", "aqueous")
+                } else {
+                    ("aqueous", "organic")
+                };
+                let pos = |organic: bool| {
+                    if organic == *organic_on_top {
+                        "top"
+                    } else {
+                        "bottom"
+                    }
+                };
                 let message = format!(
                     "Step {} keeps the {kept} layer ({}), but {pct:.0}% of the product ({name}) is in \
                      the {other} layer ({}), which is {fate}.",
@@ -458,18 +537,28 @@ pub fn departures(run: &Run) -> Vec<Problem> {
                     step.number,
                     ph.map_or("n/a".into(), fmt_ph)
                 ),
-                format!("Wash at {window}, where the product stays neutral, or keep the washes and back-extract them."),
+                format!(
+                    "Wash at {window}, where the product stays neutral, or keep the washes and back-extract them."
+                ),
             ),
-            Gone::Extracted { kept_organic: true, ph } => (
+            Gone::Extracted {
+                kept_organic: true,
+                ph,
+            } => (
                 format!(
                     "After the extraction of step {}, {pct:.0}% of the product ({name}) is still \
                      in the aqueous layer (pH {}), which is {fate}.",
                     step.number,
                     ph.map_or("n/a".into(), fmt_ph)
                 ),
-                format!("Bring the aqueous layer to {window} first, or use more portions of solvent."),
+                format!(
+                    "Bring the aqueous layer to {window} first, or use more portions of solvent."
+                ),
             ),
-            Gone::Extracted { kept_organic: false, .. } => (
+            Gone::Extracted {
+                kept_organic: false,
+                ..
+            } => (
                 format!(
                     "The organic extracts of step {} hold {pct:.0}% of the product ({name}) and are {fate}.",
                     step.number
@@ -477,7 +566,10 @@ pub fn departures(run: &Run) -> Vec<Problem> {
                 "Keep the organic extracts (keep = \"organic\").".into(),
             ),
             Gone::Combined => (
-                format!("{pct:.0}% of the product ({name}) is in the layer {fate} at step {}.", step.number),
+                format!(
+                    "{pct:.0}% of the product ({name}) is in the layer {fate} at step {}.",
+                    step.number
+                ),
                 "Use that layer again (combine) or do not set it aside.".into(),
             ),
         };
@@ -505,12 +597,16 @@ pub fn impurities(run: &Run, last: &Step, end: &Phase) -> Vec<Problem> {
         if pct < 10.0 {
             continue;
         }
-        let Some(slot) = main_slot(run, ci) else { continue };
+        let Some(slot) = main_slot(run, ci) else {
+            continue;
+        };
         let p: &Protolyte = &run.slots[slot].protolyte;
         // A pH where the impurity is at least 99.9% ionized and the product 99% neutral.
         let fitting: Vec<f64> = (0..=140)
             .map(|i| i as f64 / 10.0)
-            .filter(|&ph| p.fraction_neutral(ph) <= 1e-3 && product_p.fraction_neutral(ph) >= NEUTRAL_ENOUGH)
+            .filter(|&ph| {
+                p.fraction_neutral(ph) <= 1e-3 && product_p.fraction_neutral(ph) >= NEUTRAL_ENOUGH
+            })
             .collect();
         let (Some(lo), Some(hi)) = (fitting.first(), fitting.last()) else {
             continue;

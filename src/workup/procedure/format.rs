@@ -104,7 +104,14 @@ impl RawStep {
 /// The keys each action accepts (besides `do` and `note`).
 pub fn allowed_keys(action: &str) -> Option<&'static [&'static str]> {
     Some(match action {
-        "add" => &["reagent", "stock", "volume", "amount", "ph_at_least", "ph_at_most"],
+        "add" => &[
+            "reagent",
+            "stock",
+            "volume",
+            "amount",
+            "ph_at_least",
+            "ph_at_most",
+        ],
         "separate" => &["keep", "set_aside"],
         "wash" => &[
             "reagent",

@@ -29,9 +29,12 @@ pub struct Slot {
     pub main: bool,
 }
 
+/// Strong cations and anions (moles of charge) that one mole of a compound brings.
+pub type StrongIons = (f64, f64);
+
 /// The slots of every compound, in mixture order, and the strong ions each mole of a compound
-/// brings (cations, anions).
-pub fn slots(compounds: &[Compound], estimate_only: bool) -> Result<(Vec<Slot>, Vec<(f64, f64)>)> {
+/// brings.
+pub fn slots(compounds: &[Compound], estimate_only: bool) -> Result<(Vec<Slot>, Vec<StrongIons>)> {
     let mut out = Vec::new();
     let mut ions = Vec::new();
     for (ci, c) in compounds.iter().enumerate() {
@@ -231,6 +234,10 @@ impl Funnel {
         let Some(two) = self.two_layers(slots) else {
             return Ok(None);
         };
+        // A solid weighed into a funnel with no water yet has nothing to dissolve in.
+        if two.aqueous.volume_l <= 0.0 {
+            return Ok(None);
+        }
         let state = layers::equilibrate(&two, conditions)?;
         self.settle(&state);
         Ok(Some(Shake {

@@ -33,7 +33,11 @@ pub fn check(text: &str, handbook: &Handbook, catalogue: &[Reagent]) -> Result<R
 }
 
 /// Simulates a procedure already read.
-pub fn simulate(procedure: &Procedure, catalogue: &[Reagent], estimate_only: bool) -> Result<Report> {
+pub fn simulate(
+    procedure: &Procedure,
+    catalogue: &[Reagent],
+    estimate_only: bool,
+) -> Result<Report> {
     let mut run = Run::new(procedure, catalogue, estimate_only)?;
     let start = Snapshot {
         ph: run.funnel.aqueous.as_ref().and_then(|a| a.ph),
@@ -41,7 +45,11 @@ pub fn simulate(procedure: &Procedure, catalogue: &[Reagent], estimate_only: boo
     };
     run.all()?;
     let mut extra = checks::departures(&run);
-    let end_phase = run.funnel.organic.clone().or_else(|| run.funnel.aqueous.clone());
+    let end_phase = run
+        .funnel
+        .organic
+        .clone()
+        .or_else(|| run.funnel.aqueous.clone());
     if let (Some(last), Some(end)) = (procedure.steps.last(), &end_phase)
         && end.is_organic()
         && !run.stopped
@@ -79,7 +87,9 @@ pub fn simulate(procedure: &Procedure, catalogue: &[Reagent], estimate_only: boo
     cautions.dedup();
     let mut notes = Vec::new();
     if run.stopped {
-        notes.push("The check stopped early: a step could not be carried out (see its problem).".into());
+        notes.push(
+            "The check stopped early: a step could not be carried out (see its problem).".into(),
+        );
     }
     Ok(Report {
         title: procedure.title.clone(),
@@ -88,7 +98,11 @@ pub fn simulate(procedure: &Procedure, catalogue: &[Reagent], estimate_only: boo
         co2_mode: mixture.conditions.co2_mode().as_str(),
         product: procedure.product.map(|i| mixture.compounds[i].name.clone()),
         start,
-        verdict: if problems.is_empty() { "ok" } else { "problems" },
+        verdict: if problems.is_empty() {
+            "ok"
+        } else {
+            "problems"
+        },
         steps: run.steps,
         problems,
         end,

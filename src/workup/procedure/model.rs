@@ -118,7 +118,10 @@ impl PlainLiquid {
 /// What goes into the funnel.
 #[derive(Debug, Clone, PartialEq)]
 pub enum Liquid {
-    Reagent { reagent: Reagent, offer: StockOffer },
+    Reagent {
+        reagent: Box<Reagent>,
+        offer: StockOffer,
+    },
     Plain(PlainLiquid),
 }
 
@@ -186,14 +189,18 @@ pub enum AdjustBy {
     /// Add what it takes to reach this pH.
     ToPh(f64),
     /// Add this much.
-    Given(Portion),
+    Given(Box<Portion>),
 }
 
 /// What a step does.
+#[allow(clippy::large_enum_variant)] // a few per file, never moved in bulk
 #[derive(Debug, Clone)]
 pub enum Action {
     /// Add a liquid or solid to the funnel (and shake).
-    Add { portion: Portion, aim: Aim },
+    Add {
+        portion: Portion,
+        aim: Aim,
+    },
     /// Let the layers part; keep one in the funnel, set the other aside or discard it.
     Separate {
         keep: Which,
@@ -209,7 +216,7 @@ pub enum Action {
     /// Bring the aqueous layer in the funnel to an acidic (`raise` false) or basic pH.
     Adjust {
         raise: bool,
-        reagent: Reagent,
+        reagent: Box<Reagent>,
         offer: StockOffer,
         by: AdjustBy,
     },

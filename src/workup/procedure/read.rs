@@ -7,7 +7,9 @@ use std::ops::Range;
 
 use toml::Spanned;
 
-use super::format::{ACTIONS, RawCompound, RawMixture, RawProcedure, RawStep, allowed_keys, key_position};
+use super::format::{
+    ACTIONS, RawCompound, RawMixture, RawProcedure, RawStep, allowed_keys, key_position,
+};
 use super::model::*;
 use crate::acidity::{Handbook, Profile};
 use crate::chem::formula::molar_mass;
@@ -23,7 +25,11 @@ pub fn locate(text: &str, at: usize) -> (usize, usize, &str) {
     let line_end = text[at..].find('\n').map_or(text.len(), |i| at + i);
     let line = text[..at].matches('\n').count() + 1;
     let column = text[line_start..at].chars().count() + 1;
-    (line, column, text[line_start..line_end].trim_end_matches('\r'))
+    (
+        line,
+        column,
+        text[line_start..line_end].trim_end_matches('\r'),
+    )
 }
 
 fn floor_char_boundary(text: &str, mut at: usize) -> usize {
@@ -221,8 +227,8 @@ impl Reader<'_> {
         if raw.name.get_ref().trim().is_empty() {
             return Err(self.err(raw.name.span().start, "a compound name cannot be empty"));
         }
-        let profile =
-            Profile::new(raw.smiles.get_ref(), handbook).map_err(|e| self.at_value(&raw.smiles, e))?;
+        let profile = Profile::new(raw.smiles.get_ref(), handbook)
+            .map_err(|e| self.at_value(&raw.smiles, e))?;
         let amount = units::parse_amount(raw.amount.get_ref())
             .map_err(|e| self.at_value(&raw.amount, e.into()))?;
         if matches!(amount, Amount::Equivalents(_)) {
@@ -341,7 +347,10 @@ impl Reader<'_> {
             None => Ok(1),
             Some(p) => match u32::try_from(*p.get_ref()) {
                 Ok(n @ 1..=20) => Ok(n),
-                _ => Err(self.err(p.span().start, "portions must be a whole number from 1 to 20")),
+                _ => Err(self.err(
+                    p.span().start,
+                    "portions must be a whole number from 1 to 20",
+                )),
             },
         }
     }
@@ -354,7 +363,11 @@ impl Reader<'_> {
     }
 
     /// A new layer name: not empty, not held already.
-    fn define(&self, name: &Option<Spanned<String>>, held: &mut HashSet<String>) -> Result<Option<String>> {
+    fn define(
+        &self,
+        name: &Option<Spanned<String>>,
+        held: &mut HashSet<String>,
+    ) -> Result<Option<String>> {
         let Some(n) = name else { return Ok(None) };
         let text = n.get_ref().trim().to_string();
         let at = content_start(self.text, &n.span());
@@ -392,7 +405,11 @@ impl Reader<'_> {
                         } else {
                             format!(
                                 " (set aside: {})",
-                                known.iter().map(|s| s.as_str()).collect::<Vec<_>>().join(", ")
+                                known
+                                    .iter()
+                                    .map(|s| s.as_str())
+                                    .collect::<Vec<_>>()
+                                    .join(", ")
                             )
                         }
                     ),
@@ -415,7 +432,10 @@ impl Reader<'_> {
     ) -> Result<Action> {
         let verb = if raise { "basify" } else { "acidify" };
         let Liquid::Reagent { reagent, offer } = self.liquid(raw, step_at)? else {
-            let r = raw.reagent.as_ref().map_or(step_at, |r| content_start(self.text, &r.span()));
+            let r = raw
+                .reagent
+                .as_ref()
+                .map_or(step_at, |r| content_start(self.text, &r.span()));
             return Err(self.err(r, format!("to {verb}, name an acid or base reagent")));
         };
         let by = match &raw.to_ph {
@@ -426,7 +446,7 @@ impl Reader<'_> {
                 ));
             }
             Some(ph) => AdjustBy::ToPh(self.ph(ph)?),
-            None => AdjustBy::Given(self.portion(raw, step_at, product_mol)?),
+            None => AdjustBy::Given(Box::new(self.portion(raw, step_at, product_mol)?)),
         };
         Ok(Action::Adjust {
             raise,
@@ -439,7 +459,10 @@ impl Reader<'_> {
     /// The liquid named by `reagent` and `stock`.
     fn liquid(&self, raw: &RawStep, step_at: usize) -> Result<Liquid> {
         let Some(name) = &raw.reagent else {
-            return Err(self.err(step_at, "this step needs `reagent` (a reagent name, water or brine)"));
+            return Err(self.err(
+                step_at,
+                "this step needs `reagent` (a reagent name, water or brine)",
+            ));
         };
         let name_at = content_start(self.text, &name.span());
         if let Some(p) = self.plain.iter().find(|p| p.answers_to(name.get_ref())) {
@@ -471,7 +494,7 @@ impl Reader<'_> {
             .map_err(|e| self.at_value(stock, e))?
             .clone();
         Ok(Liquid::Reagent {
-            reagent: reagent.clone(),
+            reagent: Box::new(reagent.clone()),
             offer,
         })
     }
@@ -525,23 +548,25 @@ impl Reader<'_> {
                         "water and brine are measured by `volume`",
                     ));
                 };
-                let amount = units::parse_amount(a.get_ref()).map_err(|e| self.at_value(a, e.into()))?;
+                let amount =
+                    units::parse_amount(a.get_ref()).map_err(|e| self.at_value(a, e.into()))?;
                 let mol = match amount {
                     Amount::Equivalents(eq) => match product_mol {
                         Some(p) => eq * p,
                         None => {
                             return Err(self.at_value(
                                 a,
-                                Error::Input(
-                                    "equivalents need a `product` to count from".into(),
-                                ),
+                                Error::Input("equivalents need a `product` to count from".into()),
                             ));
                         }
                     },
                     Amount::Molar(_) => {
                         return Err(self.at_value(
                             a,
-                            Error::Input("give the stock's strength in `stock` and here mol, g or equiv".into()),
+                            Error::Input(
+                                "give the stock's strength in `stock` and here mol, g or equiv"
+                                    .into(),
+                            ),
                         ));
                     }
                     other => other

@@ -34,7 +34,11 @@ pub struct Run<'a> {
 }
 
 impl<'a> Run<'a> {
-    pub fn new(procedure: &'a Procedure, catalogue: &'a [Reagent], estimate_only: bool) -> Result<Run<'a>> {
+    pub fn new(
+        procedure: &'a Procedure,
+        catalogue: &'a [Reagent],
+        estimate_only: bool,
+    ) -> Result<Run<'a>> {
         let m = &procedure.mixture;
         let (slots, ions) = super::funnel::slots(&m.compounds, estimate_only)?;
         let mut organic = Phase::empty(PhaseKind::Organic(m.solvent), m.organic_l, slots.len());
@@ -102,6 +106,14 @@ impl<'a> Run<'a> {
                 self.shake_into(r)?;
                 r.reagent_mol = reagent_mol(portion);
                 self.cautions(r, portion);
+                if self
+                    .funnel
+                    .aqueous
+                    .as_ref()
+                    .is_some_and(|a| a.volume_l() <= 0.0)
+                {
+                    r.problems.push(checks::no_water(step));
+                }
                 if let Some(p) = checks::shortfall(self, step, &before, portion, r.ph, aim)? {
                     r.problems.push(p);
                 }
@@ -189,7 +201,13 @@ impl<'a> Run<'a> {
         }
     }
 
-    fn separate(&mut self, step: &Step, keep: Which, set_aside: &Option<String>, r: &mut StepReport) -> Result<()> {
+    fn separate(
+        &mut self,
+        step: &Step,
+        keep: Which,
+        set_aside: &Option<String>,
+        r: &mut StepReport,
+    ) -> Result<()> {
         r.did = format!("separate, keep the {} layer", keep.as_str());
         if let Some(n) = set_aside {
             r.did += &format!(", set the other aside as `{n}`");
@@ -242,6 +260,10 @@ impl<'a> Run<'a> {
         }
         let mut washes: Option<Phase> = None;
         let mut first_before = None;
+        if !is_solution(portion) && self.funnel.aqueous.is_none() {
+            r.problems.push(checks::no_water(step));
+            return Ok(());
+        }
         for _ in 0..portions {
             first_before.get_or_insert_with(|| self.funnel.clone());
             self.funnel
@@ -287,22 +309,37 @@ impl<'a> Run<'a> {
         }
         let before = self.funnel.clone();
         let portion = match by {
-            AdjustBy::Given(p) => p.clone(),
+            AdjustBy::Given(p) => (**p).clone(),
             AdjustBy::ToPh(target) => {
-                let two = self.funnel.two_layers(&self.slots).expect("aqueous present");
-                match layers::dose_with_alternatives(&two, reagent, offer, *target, self.conditions(), self.catalogue) {
+                let two = self
+                    .funnel
+                    .two_layers(&self.slots)
+                    .expect("aqueous present");
+                match layers::dose_with_alternatives(
+                    &two,
+                    reagent,
+                    offer,
+                    *target,
+                    self.conditions(),
+                    self.catalogue,
+                ) {
                     Ok(d) => Portion {
                         liquid: Liquid::Reagent {
-                            reagent: reagent.clone(),
+                            reagent: Box::new(reagent.clone()),
                             offer: offer.clone(),
                         },
                         mol: d.dose.reagent_mol,
                         volume_l: d.dose.stock_volume_l.unwrap_or(0.0),
                     },
                     Err(Error::Unreachable(message)) => {
-                        r.did = format!("{verb} to pH {target:.1} with {} ({})", reagent.name, offer.label());
+                        r.did = format!(
+                            "{verb} to pH {target:.1} with {} ({})",
+                            reagent.name,
+                            offer.label()
+                        );
                         r.ph = before.aqueous.as_ref().and_then(|a| a.ph);
-                        r.problems.push(checks::unreachable(step, *target, &message));
+                        r.problems
+                            .push(checks::unreachable(step, *target, &message));
                         return Ok(());
                     }
                     Err(e) => return Err(e),
@@ -313,16 +350,26 @@ impl<'a> Run<'a> {
             AdjustBy::ToPh(t) => format!("{verb} to pH {t:.1}: {}", portion.describe()),
             AdjustBy::Given(_) => format!("{verb} with {}", portion.describe()),
         };
-        self.funnel.aqueous.as_mut().expect("aqueous present").add(&portion);
+        self.funnel
+            .aqueous
+            .as_mut()
+            .expect("aqueous present")
+            .add(&portion);
         self.shake_into(r)?;
         r.reagent_mol = reagent_mol(&portion);
         self.cautions(r, &portion);
         self.extraction_ph_flagged = false;
         if matches!(by, AdjustBy::Given(_)) {
             let aim = if raise {
-                Aim { at_least: Some(7.0), at_most: None }
+                Aim {
+                    at_least: Some(7.0),
+                    at_most: None,
+                }
             } else {
-                Aim { at_least: None, at_most: Some(7.0) }
+                Aim {
+                    at_least: None,
+                    at_most: Some(7.0),
+                }
             };
             if let Some(p) = checks::shortfall(self, step, &before, &portion, r.ph, &aim)? {
                 r.problems.push(p);
