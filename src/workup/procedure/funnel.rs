@@ -280,3 +280,59 @@ impl Funnel {
         }
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::acidity::{Handbook, Profile};
+    use crate::partition::solvents;
+
+    /// Shaking keeps every compound's moles: what leaves one layer is in the other.
+    #[test]
+    fn shaking_keeps_the_moles() {
+        let handbook = Handbook::builtin().unwrap();
+        let compounds: Vec<Compound> = [
+            ("acid", "OC(=O)c1ccccc1", 2e-3),
+            ("amine", "CCN(CC)CC.Cl", 1e-3),
+        ]
+        .iter()
+        .map(|(n, s, mol)| Compound {
+            name: n.to_string(),
+            smiles: s.to_string(),
+            profile: Profile::new(s, &handbook).unwrap(),
+            amount_mol: *mol,
+        })
+        .collect();
+        let (slots, ions) = slots(&compounds, true).unwrap();
+        assert_eq!(ions[1], (0.0, 1.0), "the hydrochloride brings one chloride");
+        let ether = solvents::find("ether").unwrap();
+        let mut organic = Phase::empty(PhaseKind::Organic(ether), 0.05, slots.len());
+        for (i, s) in slots.iter().enumerate() {
+            organic.slot_mol[i] = compounds[s.compound].amount_mol;
+        }
+        // As a run charges it: the salt's chloride waits in the organic layer for water.
+        organic.ions.strong_anions_mol = ions[1].1 * compounds[1].amount_mol;
+        let mut funnel = Funnel::default();
+        funnel.pour(organic);
+        funnel.pour(Phase::empty(PhaseKind::Aqueous, 0.02, slots.len()));
+        let shake = funnel
+            .shake(&slots, &Conditions::standard())
+            .unwrap()
+            .unwrap();
+        assert!(shake.ph > 0.0 && shake.ph < 14.0);
+        for (i, s) in slots.iter().enumerate() {
+            let total = funnel.organic.as_ref().unwrap().slot_mol[i]
+                + funnel.aqueous.as_ref().unwrap().slot_mol[i];
+            let start = compounds[s.compound].amount_mol;
+            assert!(
+                (total - start).abs() < 1e-12 * start.max(1.0),
+                "{total} vs {start}"
+            );
+        }
+        // The chloride met the water.
+        assert_eq!(
+            funnel.aqueous.as_ref().unwrap().ions.strong_anions_mol,
+            1e-3
+        );
+    }
+}

@@ -582,3 +582,30 @@ impl Reader<'_> {
         }
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn locate_counts_lines_and_characters() {
+        let text = "a = 1\n# µ comment\nbad = \"x\"\n";
+        let at = text.find("bad").unwrap();
+        assert_eq!(locate(text, at), (3, 1, "bad = \"x\""));
+        let mu = text.find('µ').unwrap() + 'µ'.len_utf8();
+        // Column in characters: `µ` is one character, two bytes.
+        assert_eq!(locate(text, mu).1, 4);
+        // Past the end and inside a character do not panic.
+        assert_eq!(locate(text, 10_000).0, 4);
+        let _ = error_at(text, mu - 1, "inside");
+    }
+
+    #[test]
+    fn content_start_skips_the_quotes() {
+        let text = "k = \"abc\"\nm = '''x'''";
+        let s = text.find('"').unwrap();
+        assert_eq!(content_start(text, &(s..s + 5)), s + 1);
+        let t = text.find("'''").unwrap();
+        assert_eq!(content_start(text, &(t..t + 7)), t + 3);
+    }
+}
