@@ -63,7 +63,7 @@ pub struct Args {
 
 /// Regroups the `--solute` values into (SMILES, amount) pairs. clap hands them over flat; a
 /// value with a space is a whole pair, otherwise a SMILES is followed by its amount.
-fn solute_pairs(values: &[String]) -> Result<Vec<(String, String)>> {
+pub(crate) fn solute_pairs(values: &[String]) -> Result<Vec<(String, String)>> {
     let mut pairs = Vec::new();
     let mut rest = values.iter();
     while let Some(first) = rest.next() {

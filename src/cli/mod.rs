@@ -9,6 +9,7 @@ pub mod demo;
 pub mod info;
 pub mod input;
 pub mod pka;
+pub mod plan;
 pub mod shell;
 
 use std::path::PathBuf;
@@ -53,6 +54,9 @@ pub enum Command {
     Pka(pka::Args),
     /// Reagent amount that brings an aqueous layer to a target pH.
     Adjust(adjust::Args),
+    /// A wash sequence that separates a mixture in an organic solvent, and how to recover
+    /// each compound.
+    Plan(plan::Args),
     /// Fraction ionized (or mean charge) and logD against pH, as a table or an SVG figure.
     Curve(curve::Args),
     /// Simulate a written workup (TOML procedure) step by step and report its problems.
@@ -83,6 +87,7 @@ pub fn run(cli: &Cli) -> Result<String> {
         Command::Adjust(args) => adjust::run(args, cli),
         Command::Curve(args) => curve::run(args, cli),
         Command::Check(args) => check::run(args, cli),
+        Command::Plan(args) => plan::run(args, cli),
         Command::Demo(args) => demo::run(args, cli),
         Command::Db(args) => db::run(args, cli),
         Command::Completions(args) => shell::completions(args),

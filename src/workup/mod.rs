@@ -5,5 +5,7 @@ pub mod adjust_layers;
 pub mod cautions;
 pub mod layers;
 pub mod mixture;
+pub mod plan;
+pub mod plan_recover;
 pub mod procedure;
 pub mod washes;
