@@ -3,6 +3,7 @@
 
 pub mod adjust;
 pub mod buffer;
+pub mod check;
 pub mod curve;
 pub mod db;
 pub mod demo;
@@ -61,6 +62,8 @@ pub enum Command {
     Plan(plan::Args),
     /// Fraction ionized (or mean charge) and logD against pH, as a table or an SVG figure.
     Curve(curve::Args),
+    /// Simulate a written workup (TOML procedure) step by step and report its problems.
+    Check(check::Args),
     /// A built-in workup scenario, end to end.
     Demo(demo::Args),
     /// Your own measured pKa values: add, list, remove, import, export.
@@ -87,6 +90,7 @@ pub fn run(cli: &Cli) -> Result<String> {
         Command::Adjust(args) => adjust::run(args, cli),
         Command::Buffer(args) => buffer::run(args, cli),
         Command::Curve(args) => curve::run(args, cli),
+        Command::Check(args) => check::run(args, cli),
         Command::Plan(args) => plan::run(args, cli),
         Command::Demo(args) => demo::run(args, cli),
         Command::Db(args) => db::run(args, cli),

@@ -7,4 +7,5 @@ pub mod layers;
 pub mod mixture;
 pub mod plan;
 pub mod plan_recover;
+pub mod procedure;
 pub mod washes;
