@@ -7,6 +7,7 @@ pub mod handbook;
 pub mod interplay;
 pub mod lookup;
 pub mod profile;
+pub mod reading;
 pub mod sites;
 pub mod substituent;
 pub mod taft;
