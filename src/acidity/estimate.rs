@@ -146,6 +146,7 @@ impl Estimator {
     ) -> Option<Correction> {
         match series.constant {
             Constant::Hammett => hammett::correct(mol, site, series, look),
+            Constant::HammettFive => hammett::correct_five(mol, site, series, look),
             Constant::Taft => Some(taft::correct(mol, site, series, look)),
         }
     }
@@ -203,10 +204,11 @@ impl Estimator {
 fn describe(group: &Group, series: &Series, c: &Correction, parent: Option<&Correction>) -> String {
     let law = match series.constant {
         Constant::Hammett => "Hammett",
+        Constant::HammettFive => "Hammett (five-membered ring)",
         Constant::Taft => "Taft",
     };
     let sigma = match series.constant {
-        Constant::Hammett => "sigma",
+        Constant::Hammett | Constant::HammettFive => "sigma",
         Constant::Taft => "sigma*",
     };
     let terms: Vec<String> = c

@@ -33,6 +33,9 @@ pub struct Substituent {
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Constant {
     Hammett,
+    /// Hammett constants on a five-membered heteroaromatic ring that holds the site: every
+    /// other ring member and its substituents count with sigma_m (no para position exists).
+    HammettFive,
     Taft,
 }
 
@@ -116,9 +119,14 @@ impl SeriesRow {
             "taft" => Constant::Taft,
             other => return Err(bad(format!("unknown constant '{other}'"))),
         };
+        let mut constant = constant;
         let para_minus = match self.para.as_deref() {
             None | Some("") | Some("sigma_p") => false,
             Some("sigma_minus") => true,
+            Some("five_ring") if constant == Constant::Hammett => {
+                constant = Constant::HammettFive;
+                false
+            }
             Some(other) => return Err(bad(format!("unknown para constant '{other}'"))),
         };
         let attenuation = match (constant, self.attenuation) {
@@ -126,7 +134,7 @@ impl SeriesRow {
             (Constant::Taft, _) => {
                 return Err(bad("a taft series needs 0 < attenuation < 1".into()));
             }
-            (Constant::Hammett, a) => a.unwrap_or(0.0),
+            (_, a) => a.unwrap_or(0.0),
         };
         Ok(Series {
             name: self.name,
