@@ -249,6 +249,7 @@ fn random_layer(rng: &mut Lcg) -> AqueousLayer {
                     SiteKind::Base
                 },
                 pka: rng.range(-1.0, 15.0),
+                dpka_dt: None,
             })
             .collect();
         let fixed = (rng.range(-1.5, 1.5)).round();
@@ -264,6 +265,7 @@ fn random_layer(rng: &mut Lcg) -> AqueousLayer {
         } else {
             0.0
         },
+        polyprotics: Vec::new(),
     }
 }
 

@@ -4,6 +4,7 @@
 
 use super::estimate::Estimator;
 use super::group::Group;
+use super::measured::MeasuredTable;
 use crate::error::Result;
 use crate::store::Store;
 
@@ -16,6 +17,8 @@ pub struct Handbook {
     pub estimator: Estimator,
     /// Skip stored measured values and use the estimates alone (`--estimate-only`).
     pub estimate_only: bool,
+    /// Stored measured constants by structure key (empty with `estimate_only`).
+    pub measured: MeasuredTable,
 }
 
 impl Handbook {
@@ -34,11 +37,23 @@ impl Handbook {
             groups,
             estimator,
             estimate_only,
+            measured: if estimate_only {
+                MeasuredTable::default()
+            } else {
+                MeasuredTable::from_store(store)?
+            },
         })
     }
 
-    /// The built-in tables only, from a fresh in-memory store (tests, one-off use).
+    /// The built-in group table alone, estimates only, from a fresh in-memory store (tests of
+    /// the estimate, one-off use).
     pub fn builtin() -> Result<Handbook> {
+        Handbook::from_store(&Store::in_memory()?, true)
+    }
+
+    /// The built-in tables with the built-in measured values on (no user values exist in a
+    /// fresh store).
+    pub fn builtin_measured() -> Result<Handbook> {
         Handbook::from_store(&Store::in_memory()?, false)
     }
 }

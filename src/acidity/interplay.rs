@@ -205,6 +205,15 @@ impl Profile {
     /// Couplings between the sites of parent `i`, in the order of `parent_sites(i)`. The
     /// table is embedded and checked by tests; were it unreadable, sites stay independent.
     pub fn parent_couplings(&self, i: usize) -> Vec<Coupling> {
+        // Measured constants are macroscopic: the interaction between the sites is already in
+        // them, and coupling them again would push them apart twice.
+        if self
+            .parent_origins
+            .get(i)
+            .is_some_and(|o| *o != super::measured::Origin::Estimate)
+        {
+            return Vec::new();
+        }
         let atoms: Vec<(usize, Kind)> = self
             .parent_sites(i)
             .iter()

@@ -6,6 +6,7 @@ pub mod hammett;
 pub mod handbook;
 pub mod interplay;
 pub mod lookup;
+pub mod measured;
 pub mod profile;
 pub mod reading;
 pub mod sites;

@@ -4,6 +4,7 @@
 use super::estimate::estimate_sites;
 use super::group::Kind;
 use super::handbook::Handbook;
+use super::measured::Origin;
 use super::sites::Site;
 use crate::chem::components::{Compound, split};
 use crate::chem::molecule::Molecule;
@@ -20,6 +21,13 @@ pub struct Profile {
     pub compound: Compound,
     /// Sites of all parents, by atom index of the written molecule.
     pub sites: Vec<Site>,
+    /// Whether the pKa values are the user's, handbook values or estimates.
+    pub origin: Origin,
+    /// The same per parent: measured constants are macroscopic, so the site interactions of
+    /// `interplay` are not added to them again.
+    pub parent_origins: Vec<Origin>,
+    /// Remarks on how stored values were matched to sites.
+    pub notes: Vec<String>,
 }
 
 impl Profile {
@@ -27,15 +35,21 @@ impl Profile {
     pub fn new(smiles: &str, handbook: &Handbook) -> Result<Profile> {
         let molecule = Molecule::from_smiles(smiles)?;
         let compound = split(&molecule)?;
-        let sites = estimate_sites(&compound.neutral, &handbook.groups, &handbook.estimator)
-            .into_iter()
-            .filter(|s| compound.parents.iter().any(|p| p.atoms.contains(&s.atom)))
-            .collect();
+        let mut sites: Vec<Site> =
+            estimate_sites(&compound.neutral, &handbook.groups, &handbook.estimator)
+                .into_iter()
+                .filter(|s| compound.parents.iter().any(|p| p.atoms.contains(&s.atom)))
+                .collect();
+        // A stored measured value beats the estimate (design §3), unless --estimate-only.
+        let applied = handbook.measured.apply(&compound, &mut sites);
         Ok(Profile {
             smiles: smiles.to_string(),
             molecule,
             compound,
             sites,
+            origin: applied.origin,
+            parent_origins: applied.parents,
+            notes: applied.notes,
         })
     }
 
@@ -67,6 +81,7 @@ impl Profile {
                             Kind::Base => SiteKind::Base,
                         },
                         pka: s.pka,
+                        dpka_dt: None,
                     })
                     .collect();
                 Protolyte::new(amount_mol, sites, parent.permanent_charge as f64)
@@ -111,6 +126,7 @@ impl Profile {
             site.pka_high = v;
             site.source = "given with --pka".into();
         }
+        self.origin = Origin::User;
         Ok(())
     }
 }

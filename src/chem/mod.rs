@@ -1,6 +1,7 @@
 //! Molecules: reading SMILES, rings, aromaticity, elements and formulas, SMARTS matching.
 
 pub mod aromaticity;
+pub mod canon;
 pub mod components;
 pub mod elements;
 pub mod formula;

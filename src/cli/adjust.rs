@@ -5,7 +5,7 @@ use tabled::Tabled;
 
 use super::{Cli, Format, open_store};
 use crate::acidity::Handbook;
-use crate::equilibrium::{Conditions, Reagent};
+use crate::equilibrium::{Activity, Co2Mode, Conditions};
 use crate::error::{Error, ParseError, Result};
 use crate::report::{self, sig};
 use crate::units::{self, fmt_mass, fmt_moles, fmt_ph, fmt_volume};
@@ -23,21 +23,24 @@ pub struct Args {
     /// Target pH, or several separated by commas (`2,8,12`).
     #[arg(long = "to-ph", value_name = "PH", allow_hyphen_values = true)]
     pub to_ph: String,
-    /// Reagent name from the table (`hcl`, `naoh`, `nahco3`, `koh`, `na2co3`, `k2co3`).
+    /// Reagent name from the table (`hcl`, `h2so4`, `khso4`, `citric_acid`, `acetic_acid`,
+    /// `nh4cl`, `nah2po4`, `na2hpo4`, `nahco3`, `na2co3`, `k2co3`, `naoh`, `koh`), or `auto`
+    /// for the mildest one that reaches the target.
     #[arg(long, value_name = "NAME")]
     pub reagent: String,
     /// Stock form (`solid`, `1M`, `37%`, `sat`); default 1M, else saturated, else solid.
     #[arg(long, value_name = "FORM")]
     pub stock: Option<String>,
-    /// Temperature in °C (default 25).
+    /// Temperature in °C, 0-60 (default 25).
     #[arg(long, value_name = "C", default_value = "25")]
     pub temp: String,
-    /// Ideal solution: activity coefficients 1 (the only model so far).
+    /// Ideal solution: activity coefficients 1 (default: Davies equation).
     #[arg(long)]
     pub ideal: bool,
-    /// CO2 handling: closed (all carbon stays), vented, air. Only `closed` is computed so far.
-    #[arg(long, value_name = "MODE")]
-    pub co2: Option<String>,
+    /// CO2 handling: closed (all carbon stays), vented (dissolved CO2 capped at saturation
+    /// under 1 atm CO2, the rest leaves as gas), air (equilibrium with the CO2 of air).
+    #[arg(long, value_name = "MODE", default_value = "vented")]
+    pub co2: String,
     /// Volume of an organic layer in contact (not supported yet).
     #[arg(long, value_name = "VOLUME")]
     pub organic: Option<String>,
@@ -113,21 +116,16 @@ pub fn request(args: &Args) -> Result<Request> {
             "--organic and --solvent are not supported yet (one aqueous layer only)".into(),
         ));
     }
-    match args.co2.as_deref() {
-        None | Some("closed") => {}
-        Some(mode @ ("vented" | "air")) => {
-            return Err(Error::Input(format!(
-                "--co2 {mode} is not supported yet; use --co2 closed"
-            )));
-        }
-        Some(other) => {
-            return Err(Error::Input(format!(
-                "--co2 '{other}': use closed, vented or air"
-            )));
-        }
-    }
+    let co2 = Co2Mode::parse(&args.co2)?;
     let temperature = units::parse_temperature(&args.temp)?;
-    let conditions = Conditions::new(temperature)?;
+    let activity = if args.ideal {
+        Activity::Ideal
+    } else {
+        Activity::Davies
+    };
+    let conditions = Conditions::new(temperature)?
+        .with_activity(activity)
+        .with_co2(co2);
     let water_l = units::parse_volume(&args.water)?.litres;
     let targets = units::parse_ph_list(&args.to_ph)?;
     let mut solutes = Vec::new();
@@ -194,6 +192,8 @@ struct CsvRow {
     stock_volume_ml: Option<f64>,
     reagent_conc_mol_l: f64,
     aqueous_volume_ml: f64,
+    ionic_strength: f64,
+    co2_released_ml: f64,
 }
 
 impl From<&Adjustment> for CsvRow {
@@ -210,6 +210,8 @@ impl From<&Adjustment> for CsvRow {
             stock_volume_ml: a.stock_volume_ml,
             reagent_conc_mol_l: a.reagent_conc_mol_l,
             aqueous_volume_ml: a.aqueous_volume_ml,
+            ionic_strength: a.ionic_strength,
+            co2_released_ml: a.co2_released_ml,
         }
     }
 }
@@ -273,6 +275,18 @@ fn table(results: &[Adjustment]) -> String {
     out += &report::table(&rows);
     if let Some(first) = results.first() {
         out += &format!("Layer before reagent: pH {}\n", fmt_ph(first.start_ph));
+        for a in results {
+            out += &format!(
+                "At pH {}: ionic strength {} M; CO2 ({}) released {} ({}); {} tends to pH {}\n",
+                fmt_ph(a.ph),
+                sig(a.ionic_strength, 3),
+                a.co2_mode,
+                fmt_moles(a.co2_released_mol),
+                fmt_volume(a.co2_released_ml / 1e3),
+                a.reagent,
+                fmt_ph(a.reagent_limit_ph)
+            );
+        }
         for note in &first.notes {
             out += &format!("Note: {note}\n");
         }
@@ -286,8 +300,9 @@ fn table(results: &[Adjustment]) -> String {
 
 pub fn run(args: &Args, cli: &Cli) -> Result<String> {
     let request = request(args)?;
-    let handbook = Handbook::from_store(&open_store(&cli.db)?, args.estimate_only)?;
-    let catalogue = Reagent::builtin()?;
+    let store = open_store(&cli.db)?;
+    let handbook = Handbook::from_store(&store, args.estimate_only)?;
+    let catalogue = store.reagents()?;
     let results = adjust(&request, &handbook, &catalogue)?;
     match cli.format {
         Format::Table => Ok(table(&results)),

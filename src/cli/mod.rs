@@ -3,6 +3,7 @@
 
 pub mod adjust;
 pub mod curve;
+pub mod db;
 pub mod demo;
 pub mod info;
 pub mod input;
@@ -55,6 +56,8 @@ pub enum Command {
     Curve(curve::Args),
     /// A built-in workup scenario, end to end.
     Demo(demo::Args),
+    /// Your own measured pKa values: add, list, remove, import, export.
+    Db(db::Args),
     /// Shell completion script (bash, zsh, fish, powershell, elvish) on standard output.
     Completions(shell::CompletionArgs),
     /// The manual page (roff) on standard output.
@@ -77,6 +80,7 @@ pub fn run(cli: &Cli) -> Result<String> {
         Command::Adjust(args) => adjust::run(args, cli),
         Command::Curve(args) => curve::run(args, cli),
         Command::Demo(args) => demo::run(args, cli),
+        Command::Db(args) => db::run(args, cli),
         Command::Completions(args) => shell::completions(args),
         Command::Manpage => shell::manpage(),
     }

@@ -7,6 +7,7 @@ use tabled::Tabled;
 
 use super::{Cli, Format, input, open_store};
 use crate::acidity::interplay::SiteConstant;
+use crate::acidity::measured::Origin;
 use crate::acidity::{Handbook, Profile, Site};
 use crate::error::{Error, Result};
 use crate::report;
@@ -29,6 +30,11 @@ pub struct Args {
 pub struct PkaResult {
     pub smiles: String,
     pub sites: Vec<Site>,
+    /// `user`, `measured` (built-in handbook row) or `estimate`; `mixed` when the parents of
+    /// one input differ. Each site's `source` names the value it carries.
+    pub origin: Origin,
+    /// How stored values were matched to sites, when that needed saying.
+    pub notes: Vec<String>,
     pub error: Option<String>,
     /// Macroscopic pKa values (what a titration sees), ascending; sites interact.
     pub macro_pka: Vec<f64>,
@@ -61,6 +67,8 @@ pub fn annotate(smiles: &str, handbook: &Handbook) -> Result<PkaResult> {
     Ok(PkaResult {
         smiles: smiles.to_string(),
         sites: profile.sites,
+        origin: profile.origin,
+        notes: profile.notes,
         error: None,
         macro_pka: constants.macro_pka,
         site_constants: constants.sites,
@@ -118,6 +126,18 @@ fn rows(results: &[PkaResult]) -> Vec<Row> {
     rows
 }
 
+/// Notes printed under the table, one line each, naming the structure.
+fn notes(results: &[PkaResult]) -> String {
+    results
+        .iter()
+        .flat_map(|r| {
+            r.notes
+                .iter()
+                .map(move |n| format!("note: {}: {n}\n", r.smiles))
+        })
+        .collect()
+}
+
 pub fn run(args: &Args, cli: &Cli) -> Result<String> {
     let batch = args.input.is_some();
     let mut list = args.smiles.clone();
@@ -138,6 +158,8 @@ pub fn run(args: &Args, cli: &Cli) -> Result<String> {
             Err(e) => results.push(PkaResult {
                 smiles: smiles.clone(),
                 sites: vec![],
+                origin: Origin::Estimate,
+                notes: vec![],
                 error: Some(e.to_string()),
                 macro_pka: vec![],
                 site_constants: vec![],
@@ -146,7 +168,7 @@ pub fn run(args: &Args, cli: &Cli) -> Result<String> {
         }
     }
     match cli.format {
-        Format::Table => Ok(report::table(&rows(&results))),
+        Format::Table => Ok(report::table(&rows(&results)) + &notes(&results)),
         Format::Csv => report::csv(&rows(&results)),
         Format::Json => report::json(&results),
         Format::Jsonl => report::jsonl(&results),

@@ -7,7 +7,8 @@
 //! so there is no initial guess to fail.
 
 use super::AqueousLayer;
-use super::reagent::{Reagent, Stock, StockOffer};
+use super::polyprotic::Polyprotic;
+use super::reagent::{Reagent, Role, Stock, StockOffer};
 use super::solve::{Equilibrium, solve_ph};
 use super::water::Conditions;
 use crate::error::{Error, Result};
@@ -46,6 +47,18 @@ pub fn with_reagent(
     out.strong_cations_mol += mol * reagent.strong_cations;
     out.strong_anions_mol += mol * reagent.strong_anions;
     out.carbonate_mol += mol * reagent.carbonate;
+    if let Some(system) = &reagent.system {
+        match out.polyprotics.iter_mut().find(|p| p.name == system.name) {
+            Some(existing) => existing.total_mol += mol,
+            None => out.polyprotics.push(Polyprotic {
+                name: system.name.clone(),
+                total_mol: mol,
+                top_charge: system.top_charge,
+                pkas: system.pkas.clone(),
+                dh_kj_mol: system.dh_kj_mol.clone(),
+            }),
+        }
+    }
     if let Stock::Solution { molar } = stock {
         out.volume_l += mol / molar;
     }
@@ -191,6 +204,88 @@ pub fn dose_with_alternatives(
         }
         other => other,
     }
+}
+
+/// The reagent and stock `--reagent auto` settled on, and why.
+#[derive(Debug, Clone, PartialEq)]
+pub struct AutoChoice {
+    pub reagent: Reagent,
+    pub stock: StockOffer,
+    /// One sentence for the report.
+    pub reason: String,
+}
+
+/// Stocks of `reagent` in the order they are tried: 1 M, saturated, the solid, then the
+/// rest from the most dilute solution up.
+fn stocks_in_order(reagent: &Reagent) -> Vec<&StockOffer> {
+    let rank = |s: &StockOffer| match (s.form, s.stock) {
+        (super::StockForm::Molar(m), _) if (m - 1.0).abs() < 1e-12 => (0, 0.0),
+        (super::StockForm::Saturated, _) => (1, 0.0),
+        (_, Stock::Solid) => (2, 0.0),
+        (_, Stock::Solution { molar }) => (3, molar),
+    };
+    let mut all: Vec<&StockOffer> = reagent.stocks.iter().collect();
+    all.sort_by(|a, b| {
+        let (ra, rb) = (rank(a), rank(b));
+        ra.0.cmp(&rb.0).then(ra.1.total_cmp(&rb.1))
+    });
+    all
+}
+
+/// The mildest reagent of `catalogue` (lowest `mildness` of the role the target needs: a
+/// base to go up, an acid to go down) with a stock that reaches `target_ph`.
+pub fn choose_auto(
+    layer: &AqueousLayer,
+    target_ph: f64,
+    conditions: &Conditions,
+    catalogue: &[Reagent],
+) -> Result<AutoChoice> {
+    let start = solve_ph(layer, conditions)?.ph;
+    let role = if target_ph >= start {
+        Role::Base
+    } else {
+        Role::Acid
+    };
+    let mut candidates: Vec<&Reagent> = catalogue.iter().filter(|r| r.role == role).collect();
+    candidates.sort_by_key(|r| r.mildness);
+    let what = match role {
+        Role::Base => "base",
+        Role::Acid => "acid",
+    };
+    let mut passed = Vec::new();
+    for reagent in candidates {
+        for offer in stocks_in_order(reagent) {
+            if let Ok(r) = reach(layer, reagent, offer, conditions)
+                && r.contains(target_ph)
+            {
+                let skipped = if passed.is_empty() {
+                    String::new()
+                } else {
+                    format!("; milder ones cannot: {}", passed.join(", "))
+                };
+                return Ok(AutoChoice {
+                    reagent: reagent.clone(),
+                    stock: offer.clone(),
+                    reason: format!(
+                        "auto: {} ({}) is the mildest listed {what} (mildness rank {}) that \
+                         takes the layer from pH {} to {}{skipped}",
+                        reagent.name,
+                        offer.label(),
+                        reagent.mildness,
+                        fmt_ph(start),
+                        fmt_ph(target_ph)
+                    ),
+                });
+            }
+        }
+        passed.push(reagent.name.clone());
+    }
+    Err(Error::Unreachable(format!(
+        "pH {} is out of reach from pH {} with every listed {what} ({})",
+        fmt_ph(target_ph),
+        fmt_ph(start),
+        passed.join(", ")
+    )))
 }
 
 fn unreachable_message(reagent: &Reagent, stock: &StockOffer, r: &Reach, target: f64) -> String {
@@ -417,7 +512,7 @@ mod tests {
     fn solid_without_solubility_is_refused() {
         let c = Conditions::standard();
         let (mut naoh, solid) = setup("naoh", StockForm::Solid);
-        naoh.solubility_g_l = None;
+        naoh.solubility_g_100g = None;
         let layer = AqueousLayer::water(0.1);
         assert!(matches!(
             dose(&layer, &naoh, &solid, 10.0, &c),

@@ -2,19 +2,23 @@
 //! reagents and counter-ions, water and carbonic acid, solved for pH by the charge balance;
 //! and the inverse problem, how much of a reagent brings a layer to a target pH.
 
+pub mod activity;
 pub mod carbonate;
 pub mod dose;
 pub mod microstates;
+pub mod polyprotic;
 pub mod reagent;
 pub mod solve;
 pub mod species;
 pub mod water;
 
-pub use carbonate::CarbonateSpecies;
-pub use dose::{Dose, dose, dose_with_alternatives, reachable_range};
+pub use activity::{DAVIES_LIMIT_M, Gammas};
+pub use carbonate::{CarbonateSpecies, Co2Mode};
+pub use dose::{AutoChoice, Dose, choose_auto, dose, dose_with_alternatives, reachable_range};
 pub use microstates::Coupling;
+pub use polyprotic::Polyprotic;
 pub use reagent::{Reagent, Role, Stock, StockForm, StockOffer};
-pub use solve::{Equilibrium, charge_residual, solve_ph};
+pub use solve::{Equilibrium, at_temperature, charge_residual, solve_ph};
 pub use species::{Protolyte, Site, SiteKind, SoluteState};
 pub use water::{Activity, Conditions};
 
@@ -32,6 +36,9 @@ pub struct AqueousLayer {
     pub strong_anions_mol: f64,
     /// Total dissolved inorganic carbon (CO2 + HCO3- + CO3--), moles.
     pub carbonate_mol: f64,
+    /// Acid-base systems with stepwise constants that reagents bring (phosphate, citrate,
+    /// ammonium, hydrogen sulfate, acetate), one entry per kind.
+    pub polyprotics: Vec<Polyprotic>,
 }
 
 impl AqueousLayer {
@@ -43,6 +50,7 @@ impl AqueousLayer {
             strong_cations_mol: 0.0,
             strong_anions_mol: 0.0,
             carbonate_mol: 0.0,
+            polyprotics: Vec::new(),
         }
     }
 
@@ -65,6 +73,7 @@ impl AqueousLayer {
                 )));
             }
         }
+        self.polyprotics.iter().try_for_each(Polyprotic::validate)?;
         self.solutes.iter().try_for_each(Protolyte::validate)
     }
 }

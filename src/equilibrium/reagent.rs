@@ -44,6 +44,18 @@ pub struct StockOffer {
     pub source: String,
 }
 
+/// A weak acid-base system a reagent brings, by its stepwise constants at 25 °C.
+#[derive(Debug, Clone, PartialEq)]
+pub struct WeakSystem {
+    /// Name shared by every reagent that brings it (`phosphate`), so amounts pool.
+    pub name: String,
+    /// Charge of the most protonated form.
+    pub top_charge: i32,
+    pub pkas: Vec<f64>,
+    /// Enthalpy of each step, kJ/mol, where known.
+    pub dh_kj_mol: Vec<Option<f64>>,
+}
+
 /// A reagent and the forms it is offered in.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Reagent {
@@ -52,17 +64,53 @@ pub struct Reagent {
     pub formula: String,
     pub molar_mass_g_mol: f64,
     pub role: Role,
+    /// Rank among reagents of the same role, 1 = mildest (`--reagent auto`).
+    pub mildness: u32,
     /// Per formula unit: moles of strong positive charge (Na+, K+) it brings.
     pub strong_cations: f64,
     /// Per formula unit: moles of strong negative charge (Cl-).
     pub strong_anions: f64,
     /// Per formula unit: moles of carbonate carbon.
     pub carbonate: f64,
-    /// Solubility in water at 20-25 °C, g/L; `None` for a gas or where unknown.
-    pub solubility_g_l: Option<f64>,
+    /// A weak system it brings, one per formula unit (phosphate, citrate, ammonium ...).
+    pub system: Option<WeakSystem>,
+    /// Solubility in water at 20 °C, g per 100 g of water; `None` for a gas, a liquid
+    /// miscible with water, or where unknown.
+    pub solubility_g_100g: Option<f64>,
+    /// Short hazard statement (from suppliers' safety data sheets).
+    pub hazards: String,
     pub source: String,
     pub stocks: Vec<StockOffer>,
 }
+
+/// Columns of `data/reagents.csv` (and of the store's `builtin_reagents`), in order.
+pub const REAGENT_COLUMNS: [&str; 15] = [
+    "name",
+    "formula",
+    "molar_mass_g_mol",
+    "role",
+    "mildness",
+    "strong_cations",
+    "strong_anions",
+    "carbonate",
+    "system",
+    "top_charge",
+    "pkas",
+    "dh_kj_mol",
+    "solubility_g_100g",
+    "hazards",
+    "source",
+];
+
+/// Columns of `data/reagent_stocks.csv` (and of `builtin_reagent_stocks`), in order.
+pub const STOCK_COLUMNS: [&str; 6] = [
+    "reagent",
+    "form",
+    "molar",
+    "percent_w_w",
+    "density_g_ml",
+    "source",
+];
 
 impl StockForm {
     /// Reads `solid`, `sat` (or `saturated`), `1M`, `0.1 M`, `37%`.
@@ -148,22 +196,25 @@ impl Reagent {
     }
 
     /// Reads reagents and their stock forms from CSV text (see `data/reagents.csv` and
-    /// `data/reagent_stocks.csv` for the columns).
+    /// `data/reagent_stocks.csv` for the columns; `#` starts a comment line).
     pub fn load_all(reagents_csv: &str, stocks_csv: &str) -> Result<Vec<Reagent>> {
+        let reagents = csv_rows(reagents_csv, "reagents", &REAGENT_COLUMNS)?;
+        let stocks = csv_rows(stocks_csv, "reagent_stocks", &STOCK_COLUMNS)?;
+        Reagent::from_rows(&reagents, &stocks)
+    }
+
+    /// Builds reagents from rows of text in the column order of `REAGENT_COLUMNS` and
+    /// `STOCK_COLUMNS` (CSV files and the store both give them so).
+    pub fn from_rows(
+        reagent_rows: &[Vec<String>],
+        stock_rows: &[Vec<String>],
+    ) -> Result<Vec<Reagent>> {
         let mut reagents = Vec::new();
-        for (line, row) in csv::Reader::from_reader(reagents_csv.as_bytes())
-            .records()
-            .enumerate()
-        {
-            let row = row.map_err(|e| bad_table("reagents", line, &e.to_string()))?;
-            reagents.push(reagent_from_row(&row).map_err(|m| bad_table("reagents", line, &m))?);
+        for (line, row) in reagent_rows.iter().enumerate() {
+            reagents.push(reagent_from_row(row).map_err(|m| bad_table("reagents", line, &m))?);
         }
-        for (line, row) in csv::Reader::from_reader(stocks_csv.as_bytes())
-            .records()
-            .enumerate()
-        {
-            let row = row.map_err(|e| bad_table("reagent_stocks", line, &e.to_string()))?;
-            let name = row.get(0).unwrap_or("");
+        for (line, row) in stock_rows.iter().enumerate() {
+            let name = row[0].trim();
             let Some(reagent) = reagents.iter_mut().find(|r| r.name == name) else {
                 return Err(bad_table(
                     "reagent_stocks",
@@ -172,7 +223,7 @@ impl Reagent {
                 ));
             };
             let offer =
-                stock_from_row(reagent, &row).map_err(|m| bad_table("reagent_stocks", line, &m))?;
+                stock_from_row(reagent, row).map_err(|m| bad_table("reagent_stocks", line, &m))?;
             reagent.stocks.push(offer);
         }
         Ok(reagents)
@@ -210,19 +261,44 @@ impl Reagent {
         self.stocks.iter().map(StockOffer::label).collect()
     }
 
-    /// Solubility in mol/L, where known.
+    /// Solubility in moles per litre of water (1 kg), where known: how much solid a layer
+    /// of that volume takes up.
     pub fn solubility_mol_l(&self) -> Option<f64> {
-        self.solubility_g_l.map(|g| g / self.molar_mass_g_mol)
+        self.solubility_g_100g
+            .map(|g| g * 10.0 / self.molar_mass_g_mol)
     }
 }
 
 fn bad_table(table: &str, line: usize, message: &str) -> Error {
-    // Header is line 1, so data record i sits on line i + 2.
-    Error::Internal(format!("{table}.csv line {}: {message}", line + 2))
+    Error::Internal(format!("{table} row {}: {message}", line + 1))
 }
 
-fn number(row: &csv::StringRecord, i: usize, column: &str) -> std::result::Result<f64, String> {
-    let text = row.get(i).unwrap_or("").trim();
+/// The data rows of a CSV table whose header must be exactly `columns`.
+fn csv_rows(text: &str, table: &str, columns: &[&str]) -> Result<Vec<Vec<String>>> {
+    let mut reader = csv::ReaderBuilder::new()
+        .comment(Some(b'#'))
+        .from_reader(text.as_bytes());
+    let header = reader
+        .headers()
+        .map_err(|e| bad_table(table, 0, &e.to_string()))?;
+    if header.iter().ne(columns.iter().copied()) {
+        return Err(Error::Internal(format!(
+            "{table}.csv: columns must be {}",
+            columns.join(",")
+        )));
+    }
+    reader
+        .records()
+        .enumerate()
+        .map(|(line, row)| {
+            let row = row.map_err(|e| bad_table(table, line, &e.to_string()))?;
+            Ok(row.iter().map(str::to_string).collect())
+        })
+        .collect()
+}
+
+fn number(row: &[String], i: usize, column: &str) -> std::result::Result<f64, String> {
+    let text = row.get(i).map_or("", |s| s.trim());
     match text.parse::<f64>() {
         Ok(v) if v.is_finite() && v >= 0.0 => Ok(v),
         _ => Err(format!("{column} '{text}' is not a non-negative number")),
@@ -230,21 +306,76 @@ fn number(row: &csv::StringRecord, i: usize, column: &str) -> std::result::Resul
 }
 
 fn optional_number(
-    row: &csv::StringRecord,
+    row: &[String],
     i: usize,
     column: &str,
 ) -> std::result::Result<Option<f64>, String> {
-    if row.get(i).unwrap_or("").trim().is_empty() {
+    if row.get(i).is_none_or(|s| s.trim().is_empty()) {
         Ok(None)
     } else {
         number(row, i, column).map(Some)
     }
 }
 
-/// Columns: name, formula, molar_mass_g_mol, role, strong_cations, strong_anions, carbonate,
-/// solubility_g_l, source.
-fn reagent_from_row(row: &csv::StringRecord) -> std::result::Result<Reagent, String> {
-    let text = |i: usize| row.get(i).unwrap_or("").trim().to_string();
+/// A `;`-separated list of numbers; an empty entry is `None`.
+fn number_list(text: &str, column: &str) -> std::result::Result<Vec<Option<f64>>, String> {
+    text.split(';')
+        .map(|part| {
+            let part = part.trim();
+            if part.is_empty() {
+                return Ok(None);
+            }
+            match part.parse::<f64>() {
+                Ok(v) if v.is_finite() => Ok(Some(v)),
+                _ => Err(format!("{column}: '{part}' is not a number")),
+            }
+        })
+        .collect()
+}
+
+/// The weak system of a reagent row, if its `system` column is filled.
+fn system_from_row(row: &[String]) -> std::result::Result<Option<WeakSystem>, String> {
+    let text = |i: usize| row.get(i).map_or("", |s| s.trim());
+    if text(8).is_empty() {
+        return Ok(None);
+    }
+    let top_charge: i32 = text(9)
+        .parse()
+        .map_err(|_| format!("top_charge '{}' is not a whole number", text(9)))?;
+    let pkas = number_list(text(10), "pkas")?
+        .into_iter()
+        .collect::<Option<Vec<f64>>>()
+        .ok_or("pkas: every step needs a value")?;
+    if pkas.windows(2).any(|w| w[0] > w[1]) {
+        return Err("pkas must be in ascending order".into());
+    }
+    let mut dh = if text(11).is_empty() {
+        vec![None; pkas.len()]
+    } else {
+        number_list(text(11), "dh_kj_mol")?
+    };
+    if dh.len() != pkas.len() {
+        return Err(format!(
+            "dh_kj_mol has {} entries for {} pKa values",
+            dh.len(),
+            pkas.len()
+        ));
+    }
+    dh.truncate(pkas.len());
+    Ok(Some(WeakSystem {
+        name: text(8).to_string(),
+        top_charge,
+        pkas,
+        dh_kj_mol: dh,
+    }))
+}
+
+/// One row in the order of `REAGENT_COLUMNS`.
+fn reagent_from_row(row: &[String]) -> std::result::Result<Reagent, String> {
+    if row.len() != REAGENT_COLUMNS.len() {
+        return Err(format!("expected {} columns", REAGENT_COLUMNS.len()));
+    }
+    let text = |i: usize| row[i].trim().to_string();
     let role = match text(3).as_str() {
         "acid" => Role::Acid,
         "base" => Role::Base,
@@ -254,7 +385,10 @@ fn reagent_from_row(row: &csv::StringRecord) -> std::result::Result<Reagent, Str
     if molar_mass == 0.0 {
         return Err("molar mass must be positive".into());
     }
-    let source = text(8);
+    let mildness: u32 = text(4)
+        .parse()
+        .map_err(|_| format!("mildness '{}' is not a rank", text(4)))?;
+    let source = text(14);
     if source.is_empty() {
         return Err("missing source".into());
     }
@@ -263,41 +397,49 @@ fn reagent_from_row(row: &csv::StringRecord) -> std::result::Result<Reagent, Str
         formula: text(1),
         molar_mass_g_mol: molar_mass,
         role,
-        strong_cations: number(row, 4, "strong_cations")?,
-        strong_anions: number(row, 5, "strong_anions")?,
-        carbonate: number(row, 6, "carbonate")?,
-        solubility_g_l: optional_number(row, 7, "solubility_g_l")?,
+        mildness,
+        strong_cations: number(row, 5, "strong_cations")?,
+        strong_anions: number(row, 6, "strong_anions")?,
+        carbonate: number(row, 7, "carbonate")?,
+        system: system_from_row(row)?,
+        solubility_g_100g: optional_number(row, 12, "solubility_g_100g")?,
+        hazards: text(13),
         source,
         stocks: Vec::new(),
     })
 }
 
-/// Columns: reagent, form, molar, percent_w_w, density_g_ml, source. The molarity of a % w/w
-/// stock is w/100 · density · 1000 / M; that of a saturated one is solubility / M.
-fn stock_from_row(
-    reagent: &Reagent,
-    row: &csv::StringRecord,
-) -> std::result::Result<StockOffer, String> {
-    let form_text = row.get(1).unwrap_or("");
-    let form = StockForm::parse(form_text).map_err(|e| e.to_string())?;
+/// One row in the order of `STOCK_COLUMNS`. The molarity of a % w/w stock (or of a
+/// saturated one with its mass fraction and density) is w/100 · density · 1000 / M; that of
+/// a saturated one without them is the solubility per litre of water.
+fn stock_from_row(reagent: &Reagent, row: &[String]) -> std::result::Result<StockOffer, String> {
+    if row.len() != STOCK_COLUMNS.len() {
+        return Err(format!("expected {} columns", STOCK_COLUMNS.len()));
+    }
+    let form = StockForm::parse(&row[1]).map_err(|e| e.to_string())?;
+    let percent = optional_number(row, 3, "percent_w_w")?;
     let density = optional_number(row, 4, "density_g_ml")?;
-    let source = row.get(5).unwrap_or("").trim().to_string();
+    let source = row[5].trim().to_string();
     if source.is_empty() {
         return Err("missing source".into());
     }
+    let by_weight = |p: f64, d: f64| p / 100.0 * d * 1000.0 / reagent.molar_mass_g_mol;
     let stock = match form {
         StockForm::Solid => Stock::Solid,
         StockForm::Molar(m) => Stock::Solution { molar: m },
         StockForm::PercentWw(p) => {
             let d = density.ok_or("a % w/w stock needs its density")?;
             Stock::Solution {
-                molar: p / 100.0 * d * 1000.0 / reagent.molar_mass_g_mol,
+                molar: by_weight(p, d),
             }
         }
         StockForm::Saturated => Stock::Solution {
-            molar: reagent
-                .solubility_mol_l()
-                .ok_or("a saturated stock needs the reagent's solubility")?,
+            molar: match (percent, density) {
+                (Some(p), Some(d)) => by_weight(p, d),
+                _ => reagent
+                    .solubility_mol_l()
+                    .ok_or("a saturated stock needs the reagent's solubility")?,
+            },
         },
     };
     if let Stock::Solution { molar } = stock
@@ -371,7 +513,7 @@ mod tests {
     #[test]
     fn unknown_names_list_what_is_offered() {
         let all = Reagent::builtin().unwrap();
-        match Reagent::find(&all, "h2so4") {
+        match Reagent::find(&all, "hno3") {
             Err(Error::Input(m)) => assert!(m.contains("naoh") && m.contains("nahco3"), "{m}"),
             other => panic!("{other:?}"),
         }
@@ -384,19 +526,19 @@ mod tests {
 
     #[test]
     fn bad_tables_are_internal_errors() {
-        let header = "name,formula,molar_mass_g_mol,role,strong_cations,strong_anions,carbonate,solubility_g_l,source\n";
-        let stocks = "reagent,form,molar,percent_w_w,density_g_ml,source\n";
-        let no_source = format!("{header}x,X,1,acid,0,1,0,,\n");
+        let header = format!("{}\n", REAGENT_COLUMNS.join(","));
+        let stocks = format!("{}\n", STOCK_COLUMNS.join(","));
+        let row =
+            |role: &str, source: &str| format!("{header}x,X,1,{role},1,0,1,0,,,,,,none,{source}\n");
         assert!(matches!(
-            Reagent::load_all(&no_source, stocks),
+            Reagent::load_all(&row("acid", ""), &stocks),
             Err(Error::Internal(_))
         ));
-        let bad_role = format!("{header}x,X,1,salt,0,1,0,,s\n");
         assert!(matches!(
-            Reagent::load_all(&bad_role, stocks),
+            Reagent::load_all(&row("salt", "s"), &stocks),
             Err(Error::Internal(_))
         ));
-        let ok = format!("{header}x,X,1,acid,0,1,0,,s\n");
+        let ok = row("acid", "s");
         let orphan = format!("{stocks}y,1M,1,,,s\n");
         assert!(matches!(
             Reagent::load_all(&ok, &orphan),
@@ -404,6 +546,28 @@ mod tests {
         ));
         let sat_without_solubility = format!("{stocks}x,sat,,,,s\n");
         assert!(Reagent::load_all(&ok, &sat_without_solubility).is_err());
-        assert_eq!(Reagent::load_all(&ok, stocks).unwrap().len(), 1);
+        assert_eq!(Reagent::load_all(&ok, &stocks).unwrap().len(), 1);
+        let descending = format!("{header}x,X,1,acid,1,0,0,0,w,0,5;3,,,none,s\n");
+        assert!(Reagent::load_all(&descending, &stocks).is_err());
+        assert!(Reagent::load_all("name,formula\nx,X\n", &stocks).is_err());
+    }
+
+    #[test]
+    fn weak_reagents_carry_their_constants() {
+        let all = Reagent::builtin().unwrap();
+        let citric = Reagent::find(&all, "citric_acid").unwrap();
+        let sys = citric.system.as_ref().unwrap();
+        assert_eq!(sys.pkas.len(), 3);
+        assert_eq!(sys.top_charge, 0);
+        let nh4cl = Reagent::find(&all, "nh4cl").unwrap();
+        assert_eq!(nh4cl.system.as_ref().unwrap().top_charge, 1);
+        // Every reagent has a mildness rank, a hazard line and at least one stock.
+        for r in &all {
+            assert!(
+                r.mildness >= 1 && !r.hazards.is_empty() && !r.stocks.is_empty(),
+                "{}",
+                r.name
+            );
+        }
     }
 }

@@ -2,21 +2,25 @@
 //! [H+] + strong cations + Σ positive solute charge = [OH-] + strong anions
 //! + Σ negative solute charge + [HCO3-] + 2 [CO3--].
 //!
-//! Every positive term falls and every negative term rises with pH, so the residual is
-//! monotone and bisection inside a bracket always finds the one root: no initial guess, no
-//! divergence. Terms are formed from 10^(-pH) only inside a bounded pH window, so nothing
-//! overflows.
+//! At fixed activity coefficients every positive term falls and every negative term rises with
+//! pH, so the residual is monotone and bisection inside a bracket always finds the one root:
+//! no initial guess, no divergence. With Davies activities the ionic strength is iterated
+//! around that bracketed solve: solve pH at I, recompute I from the species, repeat; should the
+//! plain iteration not settle, I itself is bisected (I_computed(I) - I changes sign between 0
+//! and the largest I the species can give), so the nested solve always ends.
+//! pH here means -log10 a(H+).
 
 use super::AqueousLayer;
+use super::activity::Gammas;
 use super::carbonate::CarbonateSpecies;
-use super::species::SoluteState;
-use super::water::Conditions;
+use super::species::{Protolyte, SoluteState};
+use super::water::{Activity, Conditions};
 use crate::error::{Error, Result};
 
 /// The solved state of a layer.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Equilibrium {
-    /// -log10 of the H+ activity (concentration, with ideal activities).
+    /// -log10 of the H+ activity.
     pub ph: f64,
     pub volume_l: f64,
     /// [H+] and [OH-], mol/L.
@@ -24,25 +28,131 @@ pub struct Equilibrium {
     pub hydroxide_mol_l: f64,
     /// One entry per solute, in the layer's order.
     pub solutes: Vec<SoluteState>,
-    /// Carbon species; in the closed system all of it stays, so `co2_mol` is the CO2 that
-    /// remains dissolved.
+    /// Mean charge per formula unit of each reagent system, in the layer's order.
+    pub polyprotic_charges: Vec<f64>,
+    /// Carbon species, with the CO2 released to (or taken from) the gas phase.
     pub carbonate: CarbonateSpecies,
+    /// Ionic strength, mol/L (self-consistent with the activities used).
+    pub ionic_strength: f64,
+    /// The activity model as solved (`Ideal`, or Davies with its A and I).
+    pub gammas: Gammas,
     /// Charge balance left at the solution, mol/L (positive minus negative); near zero.
     pub charge_residual_mol_l: f64,
 }
 
-/// Positive minus negative charge, mol/L, if the layer had pH `ph`.
-pub fn charge_residual(layer: &AqueousLayer, ph: f64, conditions: &Conditions) -> f64 {
-    let v = layer.volume_l;
-    let h = 10f64.powf(-ph);
-    let oh = 10f64.powf(ph - conditions.pkw());
+/// The layer with every constant moved to the temperature of `conditions`: solute sites by
+/// their dpKa/dT where given, reagent systems by van 't Hoff.
+pub fn at_temperature(layer: &AqueousLayer, conditions: &Conditions) -> AqueousLayer {
+    let dt = conditions.temperature_c() - 25.0;
+    let mut out = layer.clone();
+    if dt == 0.0 {
+        return out;
+    }
+    for solute in &mut out.solutes {
+        for site in &mut solute.sites {
+            if let Some(slope) = site.dpka_dt {
+                site.pka += slope * dt;
+            }
+        }
+    }
+    for system in &mut out.polyprotics {
+        system.pkas = system.pkas_at(conditions.temperature_k());
+        system.dh_kj_mol = vec![None; system.pkas.len()];
+    }
+    out
+}
+
+/// Everything charged in the layer at one pH and one set of activity coefficients.
+struct Snapshot {
+    h: f64,
+    oh: f64,
+    solutes: Vec<SoluteState>,
+    polyprotic: Vec<(f64, f64)>,
+    carbonate: CarbonateSpecies,
+}
+
+fn snapshot(layer: &AqueousLayer, ph: f64, c: &Conditions, g: &Gammas) -> Snapshot {
+    let lg = |z: i32| g.log10_gamma(z);
+    let g1 = g.gamma(1);
+    Snapshot {
+        // a(H+) = 10^-pH and a(OH-) = Kw / a(H+), both over γ of a monovalent ion.
+        h: 10f64.powf(-ph) / g1,
+        oh: 10f64.powf(ph - c.pkw()) / g1,
+        solutes: layer
+            .solutes
+            .iter()
+            .map(|s| s.state_with(ph, &lg))
+            .collect(),
+        polyprotic: layer
+            .polyprotics
+            .iter()
+            .map(|p| p.charge_moments(ph, &lg))
+            .collect(),
+        carbonate: CarbonateSpecies::in_layer(layer.carbonate_mol, layer.volume_l, ph, c, &lg),
+    }
+}
+
+fn residual(layer: &AqueousLayer, s: &Snapshot) -> f64 {
     let solutes: f64 = layer
         .solutes
         .iter()
-        .map(|s| s.total_mol * s.mean_charge(ph))
+        .zip(&s.solutes)
+        .map(|(p, st)| p.total_mol * st.mean_charge)
         .sum();
-    let carbon = CarbonateSpecies::at(layer.carbonate_mol, ph, conditions).charge_mol();
-    h - oh + (layer.strong_cations_mol - layer.strong_anions_mol + solutes + carbon) / v
+    let systems: f64 = layer
+        .polyprotics
+        .iter()
+        .zip(&s.polyprotic)
+        .map(|(p, m)| p.total_mol * m.0)
+        .sum();
+    s.h - s.oh
+        + (layer.strong_cations_mol - layer.strong_anions_mol
+            + solutes
+            + systems
+            + s.carbonate.charge_mol())
+            / layer.volume_l
+}
+
+/// Positive minus negative charge, mol/L, if the layer (constants already at the temperature
+/// of `conditions`) had pH `ph`, with ideal activities.
+pub fn charge_residual(layer: &AqueousLayer, ph: f64, conditions: &Conditions) -> f64 {
+    residual(layer, &snapshot(layer, ph, conditions, &Gammas::Ideal))
+}
+
+/// Mean squared charge of a solute at `ph`: the variance of its charge is
+/// -(1/ln 10) d<z>/dpH at fixed activity coefficients (each proton moves the charge by one),
+/// taken by a central difference so that any solute model that gives `state_with` works.
+fn mean_square_charge(p: &Protolyte, ph: f64, mean: f64, lg: &dyn Fn(i32) -> f64) -> f64 {
+    const STEP: f64 = 1e-4;
+    let up = p.state_with(ph + STEP, lg).mean_charge;
+    let down = p.state_with(ph - STEP, lg).mean_charge;
+    let variance = (-(up - down) / (2.0 * STEP) / std::f64::consts::LN_10).max(0.0);
+    variance + mean * mean
+}
+
+/// Ionic strength, mol/L, of the layer at `ph` with activities `g`. Strong ions count as
+/// singly charged (Na+, K+, Cl-): the table's Mg2+/Ca2+/SO4-- are rare in a workup layer.
+fn ionic_strength(layer: &AqueousLayer, ph: f64, c: &Conditions, g: &Gammas) -> f64 {
+    let s = snapshot(layer, ph, c, g);
+    let lg = |z: i32| g.log10_gamma(z);
+    let solutes: f64 = layer
+        .solutes
+        .iter()
+        .zip(&s.solutes)
+        .map(|(p, st)| p.total_mol * mean_square_charge(p, ph, st.mean_charge, &lg))
+        .sum();
+    let systems: f64 = layer
+        .polyprotics
+        .iter()
+        .zip(&s.polyprotic)
+        .map(|(p, m)| p.total_mol * m.1)
+        .sum();
+    let moles = layer.strong_cations_mol
+        + layer.strong_anions_mol
+        + solutes
+        + systems
+        + s.carbonate.square_charge_mol();
+    0.5 * (s.h + s.oh + moles / layer.volume_l)
 }
 
 /// Starting bracket in pH; wide enough for any bench solution.
@@ -50,13 +160,12 @@ const BRACKET: (f64, f64) = (-4.0, 20.0);
 /// How far the bracket may be widened for absurd inputs, each way. 10^±200 is still a
 /// finite double.
 const WIDEST: (f64, f64) = (-150.0, 170.0);
-/// Width in pH at which bisection stops.
-const TOLERANCE: f64 = 1e-11;
+/// Relative change in ionic strength at which the iteration stops.
+const I_TOLERANCE: f64 = 1e-12;
 
-/// Solves the charge balance of `layer` for its pH.
-pub fn solve_ph(layer: &AqueousLayer, conditions: &Conditions) -> Result<Equilibrium> {
-    layer.validate()?;
-    let f = |ph: f64| charge_residual(layer, ph, conditions);
+/// The pH that closes the charge balance at fixed activity coefficients.
+fn bisect_ph(layer: &AqueousLayer, c: &Conditions, g: &Gammas) -> Result<f64> {
+    let f = |ph: f64| residual(layer, &snapshot(layer, ph, c, g));
     let (mut lo, mut hi) = BRACKET;
     // The residual falls with pH: positive at the low end, negative at the high end.
     while f(lo) < 0.0 {
@@ -71,9 +180,17 @@ pub fn solve_ph(layer: &AqueousLayer, conditions: &Conditions) -> Result<Equilib
             return Err(no_balance());
         }
     }
-    while hi - lo > TOLERANCE {
+    // Bisect down to neighbouring doubles (about 60 halvings): the last digits matter when
+    // large, nearly cancelling solute charges meet a small [H+].
+    for _ in 0..200 {
         let mid = 0.5 * (lo + hi);
+        if mid <= lo || mid >= hi {
+            break;
+        }
         let r = f(mid);
+        if r.is_nan() {
+            return Err(no_balance());
+        }
         if r == 0.0 {
             (lo, hi) = (mid, mid);
         } else if r > 0.0 {
@@ -82,15 +199,70 @@ pub fn solve_ph(layer: &AqueousLayer, conditions: &Conditions) -> Result<Equilib
             hi = mid;
         }
     }
-    let ph = 0.5 * (lo + hi);
+    Ok(0.5 * (lo + hi))
+}
+
+/// Davies activities with the ionic strength they imply at the pH they give.
+fn self_consistent(layer: &AqueousLayer, c: &Conditions) -> Result<Gammas> {
+    let a = c.davies_a();
+    let davies = |i: f64| Gammas::Davies {
+        a,
+        ionic_strength: i,
+    };
+    // I the species give when the activities are those of `i`.
+    let implied = |i: f64| -> Result<f64> {
+        let g = davies(i);
+        Ok(ionic_strength(layer, bisect_ph(layer, c, &g)?, c, &g))
+    };
+    let close = |a: f64, b: f64| (a - b).abs() <= I_TOLERANCE * a.abs().max(b.abs()) + 1e-300;
+    let mut i = implied(0.0)?;
+    for _ in 0..60 {
+        let next = implied(i)?;
+        if close(next, i) {
+            return Ok(davies(next));
+        }
+        i = next;
+    }
+    // Fallback: bisect g(I) = implied(I) - I. g(0) >= 0; the coefficients stop changing past
+    // the Davies limit, so implied(I) is constant there and g < 0 beyond that constant.
+    let cap = super::activity::DAVIES_LIMIT_M;
+    let (mut lo, mut hi) = (0.0, cap.max(implied(cap)?) * (1.0 + 1e-9) + 1e-300);
+    for _ in 0..200 {
+        let mid = 0.5 * (lo + hi);
+        if implied(mid)? > mid {
+            lo = mid;
+        } else {
+            hi = mid;
+        }
+        if close(lo, hi) {
+            break;
+        }
+    }
+    Ok(davies(0.5 * (lo + hi)))
+}
+
+/// Solves the charge balance of `layer` for its pH under `conditions` (temperature,
+/// activity model, CO2 mode).
+pub fn solve_ph(layer: &AqueousLayer, conditions: &Conditions) -> Result<Equilibrium> {
+    layer.validate()?;
+    let layer = at_temperature(layer, conditions);
+    let gammas = match conditions.activity() {
+        Activity::Ideal => Gammas::Ideal,
+        Activity::Davies => self_consistent(&layer, conditions)?,
+    };
+    let ph = bisect_ph(&layer, conditions, &gammas)?;
+    let s = snapshot(&layer, ph, conditions, &gammas);
     Ok(Equilibrium {
         ph,
         volume_l: layer.volume_l,
-        hydrogen_mol_l: 10f64.powf(-ph),
-        hydroxide_mol_l: 10f64.powf(ph - conditions.pkw()),
-        solutes: layer.solutes.iter().map(|s| s.state(ph)).collect(),
-        carbonate: CarbonateSpecies::at(layer.carbonate_mol, ph, conditions),
-        charge_residual_mol_l: f(ph),
+        hydrogen_mol_l: s.h,
+        hydroxide_mol_l: s.oh,
+        charge_residual_mol_l: residual(&layer, &s),
+        ionic_strength: ionic_strength(&layer, ph, conditions, &gammas),
+        solutes: s.solutes,
+        polyprotic_charges: s.polyprotic.iter().map(|m| m.0).collect(),
+        carbonate: s.carbonate,
+        gammas,
     })
 }
 
@@ -163,5 +335,75 @@ mod tests {
         assert!(matches!(solve_ph(&layer, &c), Err(Error::Input(_))));
         let bad_volume = AqueousLayer::water(0.0);
         assert!(matches!(solve_ph(&bad_volume, &c), Err(Error::Input(_))));
+    }
+
+    #[test]
+    fn davies_strong_acid_closed_form() {
+        // 0.01 M HCl with Davies activities: I = 0.01 + [OH-]/... ~ 0.01, so
+        // pH = -log10(γ c) with log γ = -A (√I/(1+√I) - 0.3 I), written out here.
+        let c = Conditions::standard().with_activity(Activity::Davies);
+        let mut layer = AqueousLayer::water(0.1);
+        layer.strong_anions_mol = 1e-3;
+        let eq = solve_ph(&layer, &c).unwrap();
+        let i: f64 = 0.01;
+        let lg = -c.davies_a() * (i.sqrt() / (1.0 + i.sqrt()) - 0.3 * i);
+        assert!(
+            (eq.ph - (2.0 - lg)).abs() < 1e-6,
+            "{} vs {}",
+            eq.ph,
+            2.0 - lg
+        );
+        assert!((eq.ionic_strength - 0.01).abs() < 1e-8);
+        assert!(eq.ph > 2.04 && eq.ph < 2.05);
+    }
+
+    #[test]
+    fn ionic_strength_counts_charge_squared() {
+        // 1 mmol of a diacid fully ionized (pKa 2, 3) with 2 mmol Na+ in 1 L at ideal
+        // activities: I = ½ (2e-3 · 1 + 1e-3 · 4) = 3e-3 (plus a trace of OH-).
+        let c = Conditions::standard();
+        let layer = AqueousLayer {
+            solutes: vec![Protolyte::new(
+                1e-3,
+                vec![Site::acid(2.0), Site::acid(3.0)],
+                0.0,
+            )],
+            strong_cations_mol: 2e-3,
+            ..AqueousLayer::water(1.0)
+        };
+        let eq = solve_ph(&layer, &c).unwrap();
+        assert!(
+            (eq.ionic_strength - 3e-3).abs() < 2e-6,
+            "{}",
+            eq.ionic_strength
+        );
+    }
+
+    #[test]
+    fn temperature_moves_neutral_water() {
+        // Neutral pH is pKw/2: 7.47 at 0 °C, 6.63 at 50 °C (Harned & Robinson 1940 fit).
+        for (t, want) in [(0.0, 7.47), (50.0, 6.63)] {
+            let c = Conditions::new(t).unwrap();
+            let eq = solve_ph(&AqueousLayer::water(1.0), &c).unwrap();
+            assert!((eq.ph - want).abs() < 0.01, "{t}: {}", eq.ph);
+        }
+    }
+
+    #[test]
+    fn site_slopes_apply_away_from_25_c() {
+        // A base with dpKa/dT = -0.03 per K is 0.9 units weaker at 55 °C: half protonated at
+        // pH 9.1 there.
+        let site = Site {
+            dpka_dt: Some(-0.03),
+            ..Site::base(10.0)
+        };
+        let layer = AqueousLayer {
+            solutes: vec![Protolyte::new(1e-3, vec![site], 0.0)],
+            ..AqueousLayer::water(1.0)
+        };
+        let c = Conditions::new(55.0).unwrap();
+        let shifted = at_temperature(&layer, &c);
+        assert!((shifted.solutes[0].sites[0].pka - 9.1).abs() < 1e-12);
+        assert_eq!(at_temperature(&layer, &Conditions::standard()), layer);
     }
 }

@@ -23,8 +23,11 @@ pub enum SiteKind {
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Site {
     pub kind: SiteKind,
-    /// pKa of the conjugate acid of the pair (HA for an acid, BH+ for a base).
+    /// pKa of the conjugate acid of the pair (HA for an acid, BH+ for a base), at 25 °C.
     pub pka: f64,
+    /// dpKa/dT in pKa units per kelvin, where a table gives it (or an enthalpy); `None` keeps
+    /// the 25 °C value at every temperature (and the report says so).
+    pub dpka_dt: Option<f64>,
 }
 
 impl Site {
@@ -32,6 +35,7 @@ impl Site {
         Site {
             kind: SiteKind::Acid,
             pka,
+            dpka_dt: None,
         }
     }
 
@@ -39,6 +43,7 @@ impl Site {
         Site {
             kind: SiteKind::Base,
             pka,
+            dpka_dt: None,
         }
     }
 
@@ -233,6 +238,25 @@ mod tests {
         assert_eq!(quat.mean_charge(1.0), 1.0);
         assert_eq!(quat.mean_charge(13.0), 1.0);
         assert_eq!(quat.fraction_neutral(7.0), 1.0);
+    }
+
+    #[test]
+    fn activity_moves_the_apparent_pka() {
+        // Acid HA (0) <-> A- (-1) with γ(-1) = 10^-0.1: [A-]/[HA] = 10^(pH - pKa) / γ(-1), so
+        // at pH = pKa the ionized fraction is 1/(1 + 10^-0.1) (independent arithmetic).
+        let p = Protolyte::new(1e-3, vec![Site::acid(4.0)], 0.0);
+        let lg = |z: i32| if z == 0 { 0.0 } else { -0.1 * (z * z) as f64 };
+        let st = p.state_with(4.0, &lg);
+        let r = 10f64.powf(0.1);
+        assert!((st.fraction_ionized[0] - r / (1.0 + r)).abs() < 1e-12);
+        // A quaternary ammonium acid site (fixed +1): HA+ (+1) <-> A (0), ratio γ(+1)/γ(0).
+        let q = Protolyte::new(1e-3, vec![Site::acid(4.0)], 1.0);
+        let st = q.state_with(4.0, &lg);
+        let r = 10f64.powf(-0.1);
+        assert!((st.fraction_ionized[0] - r / (1.0 + r)).abs() < 1e-12);
+        assert!((st.mean_charge - (1.0 - r / (1.0 + r))).abs() < 1e-12);
+        // With all γ = 1 it is the ideal state.
+        assert_eq!(p.state_with(5.0, &|_| 0.0), p.state(5.0));
     }
 
     #[test]

@@ -6,15 +6,12 @@
 //! for the user's compound, so any spelling of a listed compound finds its row.
 
 use std::collections::HashMap;
-use std::collections::hash_map::DefaultHasher;
-use std::hash::{Hash, Hasher};
 use std::sync::OnceLock;
 
 use serde::Deserialize;
 
 use super::logp::crippen_logp_of;
 use crate::chem::components::split;
-use crate::chem::formula::hill_formula_of;
 use crate::chem::molecule::Molecule;
 use crate::error::{Error, Result};
 
@@ -50,51 +47,10 @@ pub struct OctanolLogP {
     pub measured: bool,
 }
 
-/// The structure key a compound is looked up by: that of one parent (`atoms`) of `mol`.
-///
-/// Stand-in until the canonical key of `chem::canon` is merged (then this body becomes
-/// `canon::fragment_key(mol, atoms)`): the Hill formula plus the multiset of atom labels after
-/// iterated neighbour refinement (Morgan-style), which tells apart the isomers of the table.
+/// The structure key a compound is looked up by: the canonical key of one parent (`atoms`) of
+/// `mol`, the same key the measured pKa values use.
 pub fn lookup_key(mol: &Molecule, atoms: &[usize]) -> String {
-    let inside: HashMap<usize, usize> = atoms.iter().enumerate().map(|(i, &a)| (a, i)).collect();
-    let hash = |value: &dyn Fn(&mut DefaultHasher)| {
-        let mut h = DefaultHasher::new();
-        value(&mut h);
-        h.finish()
-    };
-    let mut labels: Vec<u64> = atoms
-        .iter()
-        .map(|&a| {
-            let atom = &mol.atoms[a];
-            hash(&|h| {
-                (atom.element, atom.isotope, atom.charge, atom.hydrogens()).hash(h);
-                (atom.aromatic, mol.degree(a)).hash(h);
-            })
-        })
-        .collect();
-    // Each round folds in the neighbours' labels and bond kinds; as many rounds as atoms
-    // reach across the whole fragment.
-    for _ in 0..atoms.len() {
-        labels = atoms
-            .iter()
-            .enumerate()
-            .map(|(i, &a)| {
-                let mut around: Vec<(u64, u8, bool)> = mol.adjacency[a]
-                    .iter()
-                    .filter_map(|&(nb, b)| {
-                        let bond = &mol.bonds[b];
-                        let order = if bond.aromatic { 0 } else { bond.order.value() };
-                        inside.get(&nb).map(|&j| (labels[j], order, bond.aromatic))
-                    })
-                    .collect();
-                around.sort_unstable();
-                hash(&|h| (labels[i], &around).hash(h))
-            })
-            .collect();
-    }
-    labels.sort_unstable();
-    let digest = hash(&|h| labels.hash(h));
-    format!("{}#{digest:016x}", hill_formula_of(mol, atoms))
+    crate::chem::canon::fragment_key(mol, atoms)
 }
 
 /// The handbook table keyed by structure.

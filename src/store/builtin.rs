@@ -18,7 +18,11 @@ pub fn data_version() -> String {
         fnv1a(&[
             GROUPS_CSV,
             super::substituents::SUBSTITUENTS_CSV,
-            super::substituents::SERIES_CSV
+            super::substituents::SERIES_CSV,
+            super::measured::MEASURED_CSV,
+            crate::chem::canon::KEY_VERSION,
+            crate::equilibrium::reagent::REAGENTS_CSV,
+            crate::equilibrium::reagent::REAGENT_STOCKS_CSV,
         ])
     )
 }
@@ -79,6 +83,8 @@ pub fn refresh(conn: &mut Connection) -> Result<()> {
         }
     }
     super::substituents::refresh(&tx)?;
+    super::measured::refresh(&tx)?;
+    super::reagents::refresh(&tx)?;
     tx.execute(
         "INSERT INTO store_meta (key, value) VALUES ('data_version', ?1)
          ON CONFLICT(key) DO UPDATE SET value = excluded.value",

@@ -15,9 +15,19 @@ pub const MIGRATIONS: &[(u32, &str, &str)] = &[
         include_str!("../../migrations/0001_groups.sql"),
     ),
     (
+        2,
+        "measured",
+        include_str!("../../migrations/0002_measured.sql"),
+    ),
+    (
         3,
         "substituents",
         include_str!("../../migrations/0003_substituents.sql"),
+    ),
+    (
+        4,
+        "reagents",
+        include_str!("../../migrations/0004_reagents.sql"),
     ),
 ];
 

@@ -5,7 +5,9 @@
 //! the user's own tables are never touched by that refresh.
 
 pub mod builtin;
+pub mod measured;
 pub mod migrate;
+pub mod reagents;
 pub mod substituents;
 
 use std::path::{Path, PathBuf};

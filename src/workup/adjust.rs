@@ -4,12 +4,15 @@
 
 use serde::Serialize;
 
-use super::cautions::cautions;
+use super::cautions::{Situation, cautions_for};
 use crate::acidity::{Handbook, Profile, Site};
 use crate::chem::formula::molar_mass;
-use crate::equilibrium::{self, AqueousLayer, Conditions, Dose, Reagent, StockForm, StockOffer};
+use crate::equilibrium::{
+    self, Activity, AqueousLayer, Co2Mode, Conditions, DAVIES_LIMIT_M, Dose, Reagent, StockForm,
+    StockOffer,
+};
 use crate::error::{Error, Result};
-use crate::units::Amount;
+use crate::units::{Amount, fmt_moles, fmt_ph, fmt_volume};
 
 /// One solute as given: SMILES, amount, and optional pKa values that replace the estimate.
 #[derive(Debug, Clone)]
@@ -26,6 +29,7 @@ pub struct Request {
     /// Aqueous volume before any reagent, L.
     pub water_l: f64,
     pub targets: Vec<f64>,
+    /// Reagent name from the table, or `auto` for the mildest one that reaches each target.
     pub reagent: String,
     /// Stock label (`1M`, `solid`, `sat`, `37%`); `None` picks a usual one.
     pub stock: Option<String>,
@@ -67,11 +71,24 @@ pub struct Adjustment {
     /// Reagent formula units per litre of the final aqueous layer.
     pub reagent_conc_mol_l: f64,
     pub aqueous_volume_ml: f64,
-    /// `closed`: all carbon stays in the layer.
+    /// °C.
+    pub temperature_c: f64,
+    /// `davies` or `ideal`.
+    pub activity: &'static str,
+    /// Ionic strength of the final layer, mol/L.
+    pub ionic_strength: f64,
+    /// `closed`, `vented` or `air`.
     pub co2_mode: &'static str,
+    /// CO2 that left the layer as gas, mol, and its volume at the temperature and 1 atm.
+    pub co2_released_mol: f64,
     pub co2_released_ml: f64,
-    /// Dissolved CO2 at the end, mol (closed mode keeps it in the layer).
+    /// CO2 taken up from air (`air` mode only), mol.
+    pub co2_absorbed_mol: f64,
+    /// Dissolved CO2 at the end, mol.
     pub co2_dissolved_mol: f64,
+    /// The pH this reagent and stock tend to (solution) or reach at the solubility limit
+    /// (solid) in this layer: for bicarbonate, the highest pH it can bring.
+    pub reagent_limit_ph: f64,
     pub solutes: Vec<SoluteReport>,
     pub cautions: Vec<String>,
     pub notes: Vec<String>,
@@ -151,42 +168,63 @@ pub fn adjust(
         .map(|s| prepare(s, handbook, request.water_l))
         .collect::<Result<Vec<_>>>()?;
     let layer = layer_of(&prepared, request.water_l);
-    let reagent = Reagent::find(catalogue, &request.reagent)?;
-    let offer = choose_stock(reagent, request.stock.as_deref())?;
     let start = equilibrium::solve_ph(&layer, &request.conditions)?;
     let total_solute_mol: f64 = prepared.iter().map(|p| p.amount_mol).sum();
+    let auto = request.reagent.trim().eq_ignore_ascii_case("auto");
     request
         .targets
         .iter()
         .map(|&target| {
+            let (reagent, offer, why) = if auto {
+                let choice =
+                    equilibrium::choose_auto(&layer, target, &request.conditions, catalogue)?;
+                (choice.reagent, choice.stock, Some(choice.reason))
+            } else {
+                let reagent = Reagent::find(catalogue, &request.reagent)?;
+                let offer = choose_stock(reagent, request.stock.as_deref())?;
+                (reagent.clone(), offer.clone(), None)
+            };
             let dose = equilibrium::dose_with_alternatives(
                 &layer,
-                reagent,
-                offer,
+                &reagent,
+                &offer,
                 target,
                 &request.conditions,
                 catalogue,
             )?;
-            report(
-                &prepared,
-                reagent,
-                &dose,
-                target,
-                start.ph,
+            let (_, limit) =
+                equilibrium::reachable_range(&layer, &reagent, &offer, &request.conditions)?;
+            let context = Context {
+                prepared: &prepared,
+                reagent: &reagent,
+                conditions: &request.conditions,
+                start_ph: start.ph,
+                limit_ph: limit,
                 total_solute_mol,
-            )
+                why,
+            };
+            report(&context, &dose, target)
         })
         .collect()
 }
 
-fn report(
-    prepared: &[Prepared],
-    reagent: &Reagent,
-    dose: &Dose,
-    target: f64,
+/// What `report` needs besides the dose.
+struct Context<'a> {
+    prepared: &'a [Prepared],
+    reagent: &'a Reagent,
+    conditions: &'a Conditions,
     start_ph: f64,
+    limit_ph: f64,
     total_solute_mol: f64,
-) -> Result<Adjustment> {
+    /// Why `auto` chose this reagent.
+    why: Option<String>,
+}
+
+/// Molar gas constant in L atm mol^-1 K^-1 (CODATA 2018: 8.314462618 J/(mol K) / 101325 Pa).
+const GAS_CONSTANT_L_ATM: f64 = 0.082_057_366;
+
+fn report(ctx: &Context, dose: &Dose, target: f64) -> Result<Adjustment> {
+    let (prepared, reagent, conditions) = (ctx.prepared, ctx.reagent, ctx.conditions);
     let eq = &dose.equilibrium;
     let mut states = eq.solutes.iter();
     let mut solutes = Vec::new();
@@ -204,16 +242,23 @@ fn report(
             mean_charge: these.iter().map(|s| s.mean_charge).sum(),
         });
     }
-    let gas = reagent.carbonate > 0.0
-        && eq.carbonate.co2_mol > 1e-3 * dose.reagent_mol * reagent.carbonate;
+    let carbon = &eq.carbonate;
+    let released_ml = carbon.released_mol * GAS_CONSTANT_L_ATM * conditions.temperature_k() * 1e3;
+    // Gas: CO2 left the layer, or (closed) CO2 formed that would leave an open funnel.
+    let gas = carbon.released_mol > 0.0
+        || (reagent.carbonate > 0.0
+            && carbon.co2_mol > 1e-3 * dose.reagent_mol * reagent.carbonate);
     let mut notes = Vec::new();
-    if reagent.carbonate > 0.0 {
-        notes.push(
-            "CO2 is counted as staying dissolved (closed system); in an open or vented funnel part \
-             of it leaves as gas and the pH ends somewhat higher."
-                .to_string(),
-        );
+    if let Some(why) = &ctx.why {
+        notes.push(why.clone());
     }
+    notes.extend(co2_notes(
+        reagent,
+        conditions,
+        eq,
+        released_ml,
+        ctx.limit_ph,
+    ));
     for p in prepared {
         if let Some(b) = &p.profile.compound.balanced_with {
             notes.push(format!(
@@ -228,7 +273,9 @@ fn report(
             ));
         }
     }
-    notes.push("Activity coefficients are taken as 1 (ideal solution) at 25 °C.".to_string());
+    notes.extend(model_notes(prepared, conditions, eq.ionic_strength));
+    let total_solute_mol = ctx.total_solute_mol;
+    let start_ph = ctx.start_ph;
     Ok(Adjustment {
         target_ph: target,
         ph: dose.ph,
@@ -241,11 +288,115 @@ fn report(
         stock_volume_ml: dose.stock_volume_l.map(|v| v * 1e3),
         reagent_conc_mol_l: dose.reagent_mol_l,
         aqueous_volume_ml: dose.final_volume_l * 1e3,
-        co2_mode: "closed",
-        co2_released_ml: 0.0,
-        co2_dissolved_mol: eq.carbonate.co2_mol,
+        temperature_c: conditions.temperature_c(),
+        activity: conditions.activity().as_str(),
+        ionic_strength: eq.ionic_strength,
+        co2_mode: conditions.co2_mode().as_str(),
+        co2_released_mol: carbon.released_mol,
+        co2_released_ml: released_ml,
+        co2_absorbed_mol: carbon.absorbed_mol,
+        co2_dissolved_mol: carbon.co2_mol,
+        reagent_limit_ph: ctx.limit_ph,
         solutes,
-        cautions: cautions(&reagent.name, &dose.stock, gas)?,
+        cautions: cautions_for(
+            &reagent.name,
+            &dose.stock,
+            &Situation { gas, solvent: None },
+        )?,
         notes,
     })
+}
+
+/// What the CO2 did, and how far a carbonate reagent can go.
+fn co2_notes(
+    reagent: &Reagent,
+    conditions: &Conditions,
+    eq: &equilibrium::Equilibrium,
+    released_ml: f64,
+    limit_ph: f64,
+) -> Vec<String> {
+    let mut notes = Vec::new();
+    let carbon = &eq.carbonate;
+    if carbon.released_mol > 0.0 {
+        notes.push(format!(
+            "{} of CO2 leaves the layer as gas ({} at {} °C and 1 atm).",
+            fmt_moles(carbon.released_mol),
+            fmt_volume(released_ml / 1e3),
+            conditions.temperature_c()
+        ));
+    }
+    if carbon.absorbed_mol > 0.0 {
+        notes.push(format!(
+            "At equilibrium with air the layer takes up {} of CO2; an alkaline layer does so \
+             slowly (hours), so a fresh one lies between the closed and air results.",
+            fmt_moles(carbon.absorbed_mol)
+        ));
+    }
+    if reagent.carbonate > 0.0 {
+        match conditions.co2_mode() {
+            Co2Mode::Closed => notes.push(
+                "CO2 is counted as staying dissolved (closed system); in a vented funnel part of \
+                 it leaves as gas and the pH ends somewhat higher."
+                    .into(),
+            ),
+            Co2Mode::Vented => notes.push(
+                "Dissolved CO2 is capped at saturation under 1 atm of CO2 (a funnel vented \
+                 often); the rest leaves as gas."
+                    .into(),
+            ),
+            Co2Mode::Air => {}
+        }
+        if reagent.carbonate > 0.0 && reagent.strong_cations == reagent.carbonate {
+            notes.push(format!(
+                "{} cannot bring this layer above pH {}.",
+                reagent.name,
+                fmt_ph(limit_ph)
+            ));
+        }
+    }
+    notes
+}
+
+/// Activity model, temperature and their limits.
+fn model_notes(prepared: &[Prepared], conditions: &Conditions, ionic_strength: f64) -> Vec<String> {
+    let mut notes = Vec::new();
+    match conditions.activity() {
+        Activity::Ideal => notes.push(format!(
+            "Activity coefficients are taken as 1 (ideal solution) at {} °C.",
+            conditions.temperature_c()
+        )),
+        Activity::Davies => {
+            notes.push(format!(
+                "Activities by the Davies equation (A = {:.4} at {} °C), ionic strength {} M; \
+                 pH is -log10 a(H+).",
+                conditions.davies_a(),
+                conditions.temperature_c(),
+                crate::report::sig(ionic_strength, 3)
+            ));
+            if ionic_strength > DAVIES_LIMIT_M {
+                notes.push(format!(
+                    "Warning: ionic strength {} M is above {DAVIES_LIMIT_M} M, where the Davies \
+                     equation stops being trustworthy; the activity coefficients are held at \
+                     their {DAVIES_LIMIT_M} M values and the pH is rough (a few tenths).",
+                    crate::report::sig(ionic_strength, 3)
+                ));
+            }
+        }
+    }
+    if conditions.temperature_c() != 25.0 {
+        let fixed: Vec<&str> = prepared
+            .iter()
+            .filter(|p| !p.profile.sites.is_empty())
+            .map(|p| p.profile.smiles.as_str())
+            .collect();
+        if !fixed.is_empty() {
+            notes.push(format!(
+                "No temperature coefficient is known for the sites of {}: their 25 °C pKa \
+                 values are used at {} °C.",
+                fixed.join(", "),
+                conditions.temperature_c()
+            ));
+        }
+    }
+    notes
 }
