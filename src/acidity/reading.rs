@@ -52,9 +52,18 @@ pub struct Readings {
 /// two ionized sites -q_i q_j shift.
 fn levels(sites: &[Site], couplings: &[Coupling]) -> Vec<(f64, Vec<f64>)> {
     let n = sites.len();
-    let q = |i: usize| if sites[i].kind == Kind::Acid { -1.0 } else { 1.0 };
+    let q = |i: usize| {
+        if sites[i].kind == Kind::Acid {
+            -1.0
+        } else {
+            1.0
+        }
+    };
     let mut pair = vec![0.0; n * n];
-    for c in couplings.iter().filter(|c| c.a < n && c.b < n && c.a != c.b) {
+    for c in couplings
+        .iter()
+        .filter(|c| c.a < n && c.b < n && c.a != c.b)
+    {
         let v = -q(c.a) * q(c.b) * c.shift;
         pair[c.a * n + c.b] += v;
         pair[c.b * n + c.a] += v;
@@ -78,8 +87,13 @@ fn levels(sites: &[Site], couplings: &[Coupling]) -> Vec<(f64, Vec<f64>)> {
     let protons = |mask: usize| (0..n).filter(|&i| holds(mask, i)).count();
     (0..=n)
         .map(|lost| {
-            let members: Vec<usize> = (0..1usize << n).filter(|&m| protons(m) == n - lost).collect();
-            let max = members.iter().map(|&m| logw[m]).fold(f64::NEG_INFINITY, f64::max);
+            let members: Vec<usize> = (0..1usize << n)
+                .filter(|&m| protons(m) == n - lost)
+                .collect();
+            let max = members
+                .iter()
+                .map(|&m| logw[m])
+                .fold(f64::NEG_INFINITY, f64::max);
             let w: Vec<f64> = members.iter().map(|&m| 10f64.powf(logw[m] - max)).collect();
             let total: f64 = w.iter().sum();
             let avg = (0..n)
@@ -129,7 +143,11 @@ fn reference_level(pkas: &[f64], top: i32) -> usize {
     let (lo, hi) = MEASURABLE;
     (0..=pkas.len())
         .filter(|&k| {
-            let from = if k == 0 { f64::NEG_INFINITY } else { pkas[k - 1] };
+            let from = if k == 0 {
+                f64::NEG_INFINITY
+            } else {
+                pkas[k - 1]
+            };
             let to = pkas.get(k).copied().unwrap_or(f64::INFINITY);
             from < hi && to > lo && from < to
         })
@@ -167,7 +185,11 @@ impl Profile {
                 .iter()
                 .filter(move |(p, s)| own[*s].kind == kind && in_window(*p))
         };
-        let fixed = self.compound.parents.get(i).map_or(0, |p| p.permanent_charge);
+        let fixed = self
+            .compound
+            .parents
+            .get(i)
+            .map_or(0, |p| p.permanent_charge);
         let top = fixed + own.iter().filter(|s| s.kind == Kind::Base).count() as i32;
         let pkas: Vec<f64> = steps.iter().map(|s| s.0).collect();
         let k = reference_level(&pkas, top);

@@ -29,6 +29,10 @@ pub struct Substituent {
     pub source: String,
 }
 
+/// Standard deviation of a series without its own: Perrin, Dempsey & Serjeant 1981 find most
+/// Hammett and Taft pKa equations good to 0.2-0.4 (from memory).
+pub const DEFAULT_SD: f64 = 0.4;
+
 /// Which substituent constant a series takes.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Constant {
@@ -53,6 +57,8 @@ pub struct Series {
     pub ortho_shift: f64,
     /// Factor per intervening saturated carbon (Taft series).
     pub attenuation: f64,
+    /// Standard deviation of the series' equation, pK units.
+    pub sd: f64,
     pub source: String,
 }
 
@@ -81,6 +87,9 @@ pub struct SeriesRow {
     pub ortho_shift: Option<f64>,
     pub attenuation: Option<f64>,
     pub source: String,
+    /// Standard deviation of the equation (pK units); missing means `DEFAULT_SD`.
+    #[serde(default)]
+    pub sd: Option<f64>,
 }
 
 impl SubstituentRow {
@@ -136,6 +145,11 @@ impl SeriesRow {
             }
             (_, a) => a.unwrap_or(0.0),
         };
+        let sd = match self.sd {
+            Some(sd) if sd.is_finite() && sd >= 0.0 => sd,
+            Some(sd) => return Err(bad(format!("sd {sd} must be finite and >= 0"))),
+            None => DEFAULT_SD,
+        };
         Ok(Series {
             name: self.name,
             constant,
@@ -144,6 +158,7 @@ impl SeriesRow {
             para_minus,
             ortho_shift: self.ortho_shift.unwrap_or(0.0),
             attenuation,
+            sd,
             source: self.source,
         })
     }

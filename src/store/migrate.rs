@@ -29,6 +29,11 @@ pub const MIGRATIONS: &[(u32, &str, &str)] = &[
         "reagents",
         include_str!("../../migrations/0004_reagents.sql"),
     ),
+    (
+        5,
+        "series_sd",
+        include_str!("../../migrations/0005_series_sd.sql"),
+    ),
 ];
 
 /// Applies, in order, every migration the store has not recorded (by version, not by the

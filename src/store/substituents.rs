@@ -66,7 +66,7 @@ pub fn refresh(tx: &Transaction) -> Result<()> {
     }
     let mut insert = tx.prepare(
         "INSERT INTO builtin_series (name, constant, rho, base, para, ortho_shift, attenuation,
-         source) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8)",
+         source, sd) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9)",
     )?;
     for row in reader(SERIES_CSV).deserialize::<SeriesRow>() {
         let s = row.map_err(csv_error("series.csv"))?;
@@ -78,7 +78,8 @@ pub fn refresh(tx: &Transaction) -> Result<()> {
             s.para,
             s.ortho_shift,
             s.attenuation,
-            s.source
+            s.source,
+            s.sd
         ])?;
     }
     let mut update =
@@ -116,7 +117,7 @@ impl Store {
     /// The series rows.
     pub fn series(&self) -> Result<Vec<SeriesRow>> {
         let mut stmt = self.connection().prepare(
-            "SELECT name, constant, rho, base, para, ortho_shift, attenuation, source
+            "SELECT name, constant, rho, base, para, ortho_shift, attenuation, source, sd
              FROM builtin_series ORDER BY name",
         )?;
         let rows = stmt.query_map([], |r| {
@@ -129,6 +130,7 @@ impl Store {
                 ortho_shift: r.get(5)?,
                 attenuation: r.get(6)?,
                 source: r.get(7)?,
+                sd: r.get(8)?,
             })
         })?;
         Ok(rows.collect::<std::result::Result<_, _>>()?)
