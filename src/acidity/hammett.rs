@@ -21,6 +21,8 @@ pub fn correct(mol: &Molecule, site: usize, series: &Series, look: &Lookup) -> O
         mol.rings.rings.iter().find(|r| {
             r.len() == 6 && r.contains(&ipso) && r.iter().all(|&a| mol.atoms[a].aromatic)
         })?;
+    // The site is the ring N itself (pyridinium, lactam N-H): its ortho groups act directly.
+    let aza_site = ipso == site && mol.atoms[site].element == 7;
     let mut c = Correction::default();
     for &r in ring {
         let distance = ring_distance(ring, ipso, r);
@@ -30,7 +32,7 @@ pub fn correct(mol: &Molecule, site: usize, series: &Series, look: &Lookup) -> O
             add(
                 &mut c,
                 series,
-                row.sigma_at(distance, series.para_minus),
+                row.sigma_at(distance, series.para_minus, aza_site),
                 distance,
                 &row.name,
                 false,
@@ -50,7 +52,7 @@ pub fn correct(mol: &Molecule, site: usize, series: &Series, look: &Lookup) -> O
                 Some(row) => add(
                     &mut c,
                     series,
-                    row.sigma_at(distance, series.para_minus),
+                    row.sigma_at(distance, series.para_minus, aza_site),
                     distance,
                     &row.name,
                     true,

@@ -198,7 +198,7 @@ impl Profile {
             .or_else(|| steps.get(k))
             .map(reading);
         let base = listed(Kind::Base)
-            .last()
+            .next_back()
             .or_else(|| k.checked_sub(1).and_then(|j| steps.get(j)))
             .map(reading);
         Readings { steps, acid, base }

@@ -26,6 +26,9 @@ pub struct Substituent {
     pub sigma_o: Option<f64>,
     /// Taft sigma*; `None` on a saturated carbon means "follow the chain".
     pub sigma_star: Option<f64>,
+    /// Ortho constant next to a ring aza site (2-substituted pyridinium ions); `None` means
+    /// `sigma_o` serves.
+    pub sigma_o_aza: Option<f64>,
     pub source: String,
 }
 
@@ -74,6 +77,8 @@ pub struct SubstituentRow {
     pub sigma_o: Option<f64>,
     pub sigma_star: Option<f64>,
     pub source: String,
+    #[serde(default)]
+    pub sigma_o_aza: Option<f64>,
 }
 
 /// A stored series row, before compiling.
@@ -114,6 +119,7 @@ impl SubstituentRow {
             sigma_minus: self.sigma_minus,
             sigma_o: self.sigma_o,
             sigma_star: self.sigma_star,
+            sigma_o_aza: self.sigma_o_aza,
             source: self.source,
         })
     }
@@ -166,8 +172,9 @@ impl SeriesRow {
 
 impl Substituent {
     /// The Hammett constant for a ring distance (1 ortho, 2 meta, 3 para) and whether it is a
-    /// stand-in (sigma_p for a missing sigma_o).
-    pub fn sigma_at(&self, distance: usize, para_minus: bool) -> (f64, bool) {
+    /// stand-in (sigma_p for a missing sigma_o). `aza_site`: the site is the ring N itself,
+    /// where an ortho group takes `sigma_o_aza` when it has one.
+    pub fn sigma_at(&self, distance: usize, para_minus: bool, aza_site: bool) -> (f64, bool) {
         let para = || {
             if para_minus {
                 self.sigma_minus.or(self.sigma_p)
@@ -177,6 +184,7 @@ impl Substituent {
             .unwrap_or(0.0)
         };
         match distance {
+            1 if aza_site && self.sigma_o_aza.is_some() => (self.sigma_o_aza.unwrap_or(0.0), false),
             1 => match self.sigma_o {
                 Some(s) => (s, false),
                 None => (para(), true),
@@ -202,17 +210,18 @@ mod tests {
             sigma_o: None,
             sigma_star: Some(4.0),
             source: "test row".into(),
+            sigma_o_aza: None,
         }
     }
 
     #[test]
     fn para_minus_is_used_only_where_the_series_asks() {
         let s = row("attached").compile().unwrap();
-        assert_eq!(s.sigma_at(3, true), (1.27, false));
-        assert_eq!(s.sigma_at(3, false), (0.78, false));
-        assert_eq!(s.sigma_at(2, true), (0.71, false));
+        assert_eq!(s.sigma_at(3, true, false), (1.27, false));
+        assert_eq!(s.sigma_at(3, false, false), (0.78, false));
+        assert_eq!(s.sigma_at(2, true, false), (0.71, false));
         // No sigma_o: the para value stands in and says so.
-        assert_eq!(s.sigma_at(1, false), (0.78, true));
+        assert_eq!(s.sigma_at(1, false, false), (0.78, true));
     }
 
     #[test]

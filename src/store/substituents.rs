@@ -44,7 +44,8 @@ pub fn refresh(tx: &Transaction) -> Result<()> {
     tx.execute("DELETE FROM builtin_series", [])?;
     let mut insert = tx.prepare(
         "INSERT INTO builtin_substituents (priority, name, smarts, position, sigma_m, sigma_p,
-         sigma_minus, sigma_o, sigma_star, source) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10)",
+         sigma_minus, sigma_o, sigma_star, source, sigma_o_aza)
+         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11)",
     )?;
     for (i, row) in reader(SUBSTITUENTS_CSV)
         .deserialize::<SubstituentRow>()
@@ -61,7 +62,8 @@ pub fn refresh(tx: &Transaction) -> Result<()> {
             s.sigma_minus,
             s.sigma_o,
             s.sigma_star,
-            s.source
+            s.source,
+            s.sigma_o_aza
         ])?;
     }
     let mut insert = tx.prepare(
@@ -96,7 +98,7 @@ impl Store {
     pub fn substituents(&self) -> Result<Vec<SubstituentRow>> {
         let mut stmt = self.connection().prepare(
             "SELECT name, smarts, position, sigma_m, sigma_p, sigma_minus, sigma_o, sigma_star,
-             source FROM builtin_substituents ORDER BY priority",
+             source, sigma_o_aza FROM builtin_substituents ORDER BY priority",
         )?;
         let rows = stmt.query_map([], |r| {
             Ok(SubstituentRow {
@@ -109,6 +111,7 @@ impl Store {
                 sigma_o: r.get(6)?,
                 sigma_star: r.get(7)?,
                 source: r.get(8)?,
+                sigma_o_aza: r.get(9)?,
             })
         })?;
         Ok(rows.collect::<std::result::Result<_, _>>()?)
