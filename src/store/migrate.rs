@@ -30,9 +30,14 @@ pub const MIGRATIONS: &[(u32, &str, &str)] = &[
         include_str!("../../migrations/0004_reagents.sql"),
     ),
     (
-        5,
+        6,
+        "buffers",
+        include_str!("../../migrations/0006_buffers.sql"),
+    ),
+    (
+        7,
         "series_sd",
-        include_str!("../../migrations/0005_series_sd.sql"),
+        include_str!("../../migrations/0007_series_sd.sql"),
     ),
 ];
 
