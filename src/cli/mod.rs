@@ -5,6 +5,7 @@ pub mod adjust;
 pub mod curve;
 pub mod db;
 pub mod demo;
+pub mod html;
 pub mod info;
 pub mod input;
 pub mod pka;
