@@ -97,7 +97,14 @@ fn amount_text(amount: &Amount) -> String {
 /// What to weigh or measure: `3.12 mL of 1M naoh`, `262 mg of solid nahco3`.
 fn measure(a: &Adjustment) -> String {
     match (a.stock_volume_ml, a.reagent_mass_g) {
-        (Some(ml), _) => format!("{} of {} {}", fmt_volume(ml / 1e3), a.stock, a.reagent),
+        (Some(ml), _) => {
+            let stock = if a.stock == "sat" {
+                "saturated"
+            } else {
+                &a.stock
+            };
+            format!("{} of {stock} {}", fmt_volume(ml / 1e3), a.reagent)
+        }
         (None, Some(g)) => format!("{} of solid {}", fmt_mass(g), a.reagent),
         (None, None) => format!("{} of {}", fmt_moles(a.reagent_mol), a.reagent),
     }
@@ -109,7 +116,7 @@ fn summary_line(a: &Adjustment) -> String {
         .map(|e| format!(", {} equiv.", sig(e, 3)))
         .unwrap_or_default();
     format!(
-        "For pH {}: add {} ({}{equiv}). The layer goes from pH {} to pH {} and ends at {}.",
+        "For pH {}: add {} ({}{equiv}). The layer goes from pH {} to pH {}; final volume {}.",
         short_ph(a.target_ph),
         measure(a),
         fmt_moles(a.reagent_mol),
