@@ -2,8 +2,9 @@
 //! in lab units, where each compound stands at the pH reached, the ionization curves with the
 //! targets marked, and the notes and cautions of the run.
 
-use super::{Block, Cell, Report, Section, Table};
-use crate::report::ionization::{self, Compound, Options};
+use super::figure::ionization_figure;
+use super::{Block, Cell, Report, Section, Table, merge_cautions};
+use crate::report::ionization::{self, Compound};
 use crate::report::sig;
 use crate::units::{Amount, fmt_mass, fmt_moles, fmt_ph, fmt_volume};
 use crate::workup::adjust::Adjustment;
@@ -60,7 +61,7 @@ pub fn report(inputs: &AdjustInputs, results: &[Adjustment], solutes: &[SoluteCu
         });
     }
     r.notes = notes(results);
-    r.cautions = cautions(results);
+    r.cautions = merge_cautions(results.iter().map(|a| a.cautions.as_slice()));
     r
 }
 
@@ -211,7 +212,10 @@ fn settings(inputs: &AdjustInputs, results: &[Adjustment]) -> Vec<(String, Cell)
         }),
     ));
     for (smiles, values) in &inputs.pka_overrides {
-        facts.push((format!("pKa set for {smiles}"), text(values)));
+        facts.push((
+            "pKa given (--pka)".into(),
+            Cell::Code(format!("{smiles}: {values}")),
+        ));
     }
     facts
 }
@@ -324,36 +328,17 @@ fn compound_table(results: &[Adjustment]) -> Table {
     }
 }
 
-/// The solutes' ionization curves with each target marked; the pH axis widens to hold a
-/// target outside 0-14.
+/// The solutes' ionization curves with each target marked.
 fn figure(results: &[Adjustment], solutes: &[SoluteCurves]) -> Block {
     let targets: Vec<f64> = results.iter().map(|a| a.target_ph).collect();
-    let mut marks: Vec<f64> = Vec::new();
-    for t in &targets {
-        if !marks.iter().any(|m| (m - t).abs() < 1e-9) {
-            marks.push(*t);
-        }
-    }
-    let low = marks.iter().copied().fold(0.0f64, f64::min).floor();
-    let high = marks.iter().copied().fold(14.0f64, f64::max).ceil();
     let compounds: Vec<Compound> = solutes.iter().map(|s| s.compound.clone()).collect();
-    let chart = ionization::chart(
+    ionization_figure(
         &compounds,
-        &Options {
-            from: low,
-            to: high,
-            charge: false,
-            marks,
-        },
-    );
-    Block::Figure {
-        svg: chart.to_svg(),
-        caption: "Fraction ionized (and logD where the logP is known) of each solute against \
-                  pH, from its pKa values alone; vertical lines mark the target pH. Other \
-                  solutes, salt and temperature shift the real layer slightly; the tables \
-                  above include them."
-            .into(),
-    }
+        &targets,
+        "Fraction ionized (and logD where the logP is known) of each solute against pH, from \
+         its pKa values alone; vertical lines mark the target pH. Other solutes, salt and \
+         temperature shift the real layer slightly; the tables above include them.",
+    )
 }
 
 /// Notes shared by every target once; a note that holds for some targets only (the ionic
@@ -374,19 +359,6 @@ fn notes(results: &[Adjustment]) -> Vec<String> {
             }
         }
     }
-    out
-}
-
-/// The cautions of every target, each once, with the deferral (last of each list) last.
-fn cautions(results: &[Adjustment]) -> Vec<String> {
-    let deferral = results.first().and_then(|a| a.cautions.last()).cloned();
-    let mut out = unique(
-        results
-            .iter()
-            .flat_map(|a| a.cautions.iter())
-            .filter(|c| Some(*c) != deferral.as_ref()),
-    );
-    out.extend(deferral);
     out
 }
 

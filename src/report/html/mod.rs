@@ -11,6 +11,7 @@
 
 pub mod adjust;
 mod date;
+pub mod figure;
 
 use std::fmt::Write as _;
 use std::path::Path;
@@ -198,7 +199,13 @@ impl Report {
         if !self.notes.is_empty() {
             out.push_str("<section class=\"notes\">\n<h2>Notes</h2>\n<ul>\n");
             for n in &self.notes {
-                let _ = writeln!(out, "<li>{}</li>", escape(n));
+                // A note that warns (a model pushed past its range) must not read as routine.
+                let class = if n.contains("Warning:") {
+                    " class=\"warn\""
+                } else {
+                    ""
+                };
+                let _ = writeln!(out, "<li{class}>{}</li>", escape(n));
             }
             out.push_str("</ul>\n</section>\n");
         }
@@ -281,6 +288,21 @@ fn write_table(out: &mut String, t: &Table) {
     out.push_str("</tbody>\n</table>\n");
 }
 
+/// The cautions of several results (targets, steps) as one list: each once, in first-seen
+/// order, and the deferral to local rules and the SDS, which ends every list, last.
+pub fn merge_cautions<'a>(lists: impl IntoIterator<Item = &'a [String]>) -> Vec<String> {
+    let lists: Vec<&[String]> = lists.into_iter().collect();
+    let deferral = lists.iter().find_map(|l| l.last());
+    let mut out: Vec<String> = Vec::new();
+    for c in lists.iter().flat_map(|l| l.iter()) {
+        if Some(c) != deferral && !out.contains(c) {
+            out.push(c.clone());
+        }
+    }
+    out.extend(deferral.cloned());
+    out
+}
+
 /// Writes `html` to `path`. A path that cannot be a file (its folder is missing, or it names a
 /// folder) is bad input (exit 2); a write that fails on a good path is an I/O error (exit 1).
 pub fn write(path: &Path, html: &str) -> Result<()> {
@@ -327,7 +349,7 @@ mod tests {
                 }),
             ],
         });
-        r.notes = vec!["a note".into()];
+        r.notes = vec!["a note".into(), "For pH 9: Warning: rough".into()];
         r.cautions = vec!["first".into(), "defer to the SDS".into()];
         r
     }
@@ -363,6 +385,17 @@ mod tests {
         let after = &html[deferral..];
         assert!(!after.contains("<li>") && !after.contains("<table"));
         assert!(html.contains("2 cautions at the end"));
+        assert!(html.contains("<li class=\"warn\">For pH 9: Warning: rough</li>"));
+    }
+
+    #[test]
+    fn cautions_of_several_steps_merge_with_the_deferral_last() {
+        let s = |v: &[&str]| v.iter().map(|x| x.to_string()).collect::<Vec<_>>();
+        let first = s(&["corrosive", "defer"]);
+        let second = s(&["gas", "corrosive", "defer"]);
+        let merged = merge_cautions([first.as_slice(), second.as_slice()]);
+        assert_eq!(merged, ["corrosive", "gas", "defer"]);
+        assert!(merge_cautions([]).is_empty());
     }
 
     #[test]
