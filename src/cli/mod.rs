@@ -2,6 +2,7 @@
 //! holds the shared flags and dispatches.
 
 pub mod adjust;
+pub mod buffer;
 pub mod curve;
 pub mod db;
 pub mod demo;
@@ -53,6 +54,8 @@ pub enum Command {
     Pka(pka::Args),
     /// Reagent amount that brings an aqueous layer to a target pH.
     Adjust(adjust::Args),
+    /// Buffer recipe: what to weigh, titrate or mix for a pH, concentration and volume.
+    Buffer(buffer::Args),
     /// Fraction ionized (or mean charge) and logD against pH, as a table or an SVG figure.
     Curve(curve::Args),
     /// A built-in workup scenario, end to end.
@@ -79,6 +82,7 @@ pub fn run(cli: &Cli) -> Result<String> {
         Command::Info(args) => info::run(args, cli),
         Command::Pka(args) => pka::run(args, cli),
         Command::Adjust(args) => adjust::run(args, cli),
+        Command::Buffer(args) => buffer::run(args, cli),
         Command::Curve(args) => curve::run(args, cli),
         Command::Demo(args) => demo::run(args, cli),
         Command::Db(args) => db::run(args, cli),

@@ -29,6 +29,11 @@ pub const MIGRATIONS: &[(u32, &str, &str)] = &[
         "reagents",
         include_str!("../../migrations/0004_reagents.sql"),
     ),
+    (
+        6,
+        "buffers",
+        include_str!("../../migrations/0006_buffers.sql"),
+    ),
 ];
 
 /// Applies, in order, every migration the store has not recorded (by version, not by the
