@@ -304,3 +304,48 @@ fn a_missing_folder_exits_2_and_a_failed_write_exits_1() {
     }
     std::fs::remove_dir_all(&dir).ok();
 }
+
+#[test]
+fn the_buffer_report_holds_the_recipe_and_renders() {
+    // Our own prep-room request: 500 mL of 50 mM Tris pH 8.0 for use at 37 °C, titrated.
+    let dir = temp_dir("buffer");
+    let run = [
+        "buffer", "--system", "tris", "--ph", "8.0", "--conc", "50mM", "--volume", "500mL",
+        "--temp", "37", "--recipe", "titrate",
+    ];
+    let json = phdose(&dir, &[&run[..], &["--format", "json"]].concat());
+    assert!(json.status.success(), "{}", text(&json.stderr));
+    let v: Value = serde_json::from_slice(&json.stdout).unwrap();
+    let page = dir.join("buffer.html");
+    let o = phdose(
+        &dir,
+        &[&run[..], &["--html", page.to_str().unwrap()]].concat(),
+    );
+    assert!(o.status.success(), "{}", text(&o.stderr));
+    let html = std::fs::read_to_string(&page).unwrap();
+    assert!(!html.contains("<script") && !html.contains("src=") && html.contains("<svg"));
+
+    let work = temp_dir("buffer-chromium");
+    let dom = run_chromium(&page, &["--dump-dom"], &work);
+    assert!(dom.status.success(), "chromium: {}", text(&dom.stderr));
+    let shown = visible_text(&text(&dom.stdout));
+    for c in v["components"].as_array().unwrap() {
+        let amount = match (c["mass_g"].as_f64(), c["volume_ml"].as_f64()) {
+            (Some(g), _) => phdose::units::fmt_mass(g),
+            (None, Some(ml)) => fmt_volume(ml / 1e3),
+            _ => panic!("a component without an amount: {c}"),
+        };
+        assert!(shown.contains(&amount), "page text lacks {amount}");
+    }
+    assert!(shown.contains(&fmt_ph(v["ph"].as_f64().unwrap())));
+    // The titrant's hazard, then the deferral last.
+    let hcl = shown
+        .find("Hydrochloric acid is corrosive")
+        .expect("titrant caution");
+    let sds = shown
+        .rfind("the SDS of every reagent")
+        .expect("the deferral");
+    assert!(hcl < sds);
+    std::fs::remove_dir_all(&dir).ok();
+    std::fs::remove_dir_all(&work).ok();
+}

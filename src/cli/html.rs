@@ -1,21 +1,26 @@
 //! `--html FILE`: the printable report of a command, written beside its usual output.
 //!
 //! Each command makes one call here after its results are computed. [`write_report`] is the
-//! hook every command shares (`plan`, `check` and `buffer` build their [`Report`] and hand it
-//! over); [`adjust`] gathers what the `adjust` report needs that its results do not hold: the
-//! flags as typed and each solute's curves.
+//! hook every command shares: a command builds its [`Report`] and hands it over, as in
+//! `write_report(args.html.as_deref(), || Ok(my_report(&result)))?`. [`adjust`] and
+//! [`buffer`] gather what their reports need that the results do not hold: the flags as
+//! typed, each solute's curves, the cautions of what is handled.
 
 use std::path::Path;
 
 use super::adjust::Args;
 use super::curve::logp_of;
 use crate::acidity::{Handbook, Profile};
+use crate::buffer::{BufferSystem, Recipe};
 use crate::chem::formula::molar_mass;
+use crate::equilibrium::StockForm;
 use crate::error::Result;
 use crate::report::html::adjust::{AdjustInputs, SoluteCurves, report};
-use crate::report::html::{self, Report};
+use crate::report::html::buffer::BufferInputs;
+use crate::report::html::{self, Report, merge_cautions};
 use crate::report::ionization::Compound;
 use crate::workup::adjust::{Adjustment, Request};
+use crate::workup::cautions::{Situation, cautions_for};
 
 /// Builds the report and writes it to `path`, when one is asked for. Path problems are bad
 /// input (exit 2), a failed write an I/O error (exit 1); see [`html::write`].
@@ -67,5 +72,49 @@ pub fn adjust(
             });
         }
         Ok(report(&inputs, results, &curves))
+    })
+}
+
+/// The `buffer` report of `recipe`, written to `args.html`.
+pub fn buffer(args: &super::buffer::Args, system: &BufferSystem, recipe: &Recipe) -> Result<()> {
+    write_report(args.html.as_deref(), || {
+        let inputs = BufferInputs {
+            system: args.system.clone().unwrap_or_default(),
+            ph: args.ph.clone().unwrap_or_default(),
+            conc: args.conc.clone(),
+            volume: args.volume.clone(),
+            temp: args.temp.clone(),
+            recipe: args.recipe.clone(),
+            forms: args.forms.clone(),
+            titrant: args.titrant.clone(),
+            stock_conc: args.stock_conc.clone(),
+            ideal: args.ideal,
+        };
+        // Each thing handled brings the cautions of its reagent and stock (a titrant as its
+        // molar stock, a liquid form at its strength, a solid as such); the deferral ends each.
+        let mut lists = Vec::new();
+        for c in &recipe.components {
+            let liquid = system
+                .forms
+                .iter()
+                .find(|f| f.name == c.name)
+                .and_then(|f| f.liquid);
+            let stock = match (c.stock_molar, liquid) {
+                (Some(m), _) => StockForm::Molar(m).label(),
+                (None, Some((percent, _))) => StockForm::PercentWw(percent).label(),
+                (None, None) => StockForm::Solid.label(),
+            };
+            lists.push(cautions_for(&c.name, &stock, &Situation::default())?);
+        }
+        if lists.is_empty() {
+            lists.push(cautions_for("", "", &Situation::default())?);
+        }
+        let cautions = merge_cautions(lists.iter().map(Vec::as_slice));
+        Ok(html::buffer::report(
+            &inputs,
+            recipe,
+            &system.species,
+            cautions,
+        ))
     })
 }

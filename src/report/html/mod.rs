@@ -10,6 +10,7 @@
 //! Everything the user typed passes through [`escape`] before it reaches the page.
 
 pub mod adjust;
+pub mod buffer;
 mod date;
 pub mod figure;
 
