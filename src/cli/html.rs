@@ -55,6 +55,9 @@ pub fn adjust(
                 .filter_map(|p| Some((p.first()?.clone(), p.get(1)?.clone())))
                 .collect(),
             estimate_only: args.estimate_only,
+            organic: args.organic.clone(),
+            solvent: args.solvent.clone(),
+            washes: args.washes,
         };
         let mut curves = Vec::with_capacity(request.solutes.len());
         for s in &request.solutes {

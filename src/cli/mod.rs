@@ -3,6 +3,7 @@
 
 pub mod adjust;
 pub mod buffer;
+pub mod check;
 pub mod curve;
 pub mod db;
 pub mod demo;
@@ -10,6 +11,7 @@ pub mod html;
 pub mod info;
 pub mod input;
 pub mod pka;
+pub mod plan;
 pub mod shell;
 
 use std::path::PathBuf;
@@ -56,8 +58,13 @@ pub enum Command {
     Adjust(adjust::Args),
     /// Buffer recipe: what to weigh, titrate or mix for a pH, concentration and volume.
     Buffer(buffer::Args),
+    /// A wash sequence that separates a mixture in an organic solvent, and how to recover
+    /// each compound.
+    Plan(plan::Args),
     /// Fraction ionized (or mean charge) and logD against pH, as a table or an SVG figure.
     Curve(curve::Args),
+    /// Simulate a written workup (TOML procedure) step by step and report its problems.
+    Check(check::Args),
     /// A built-in workup scenario, end to end.
     Demo(demo::Args),
     /// Your own measured pKa values: add, list, remove, import, export.
@@ -84,6 +91,8 @@ pub fn run(cli: &Cli) -> Result<String> {
         Command::Adjust(args) => adjust::run(args, cli),
         Command::Buffer(args) => buffer::run(args, cli),
         Command::Curve(args) => curve::run(args, cli),
+        Command::Check(args) => check::run(args, cli),
+        Command::Plan(args) => plan::run(args, cli),
         Command::Demo(args) => demo::run(args, cli),
         Command::Db(args) => db::run(args, cli),
         Command::Completions(args) => shell::completions(args),

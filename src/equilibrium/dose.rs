@@ -217,7 +217,7 @@ pub struct AutoChoice {
 
 /// Stocks of `reagent` in the order they are tried: 1 M, saturated, the solid, then the
 /// rest from the most dilute solution up.
-fn stocks_in_order(reagent: &Reagent) -> Vec<&StockOffer> {
+pub fn stocks_in_order(reagent: &Reagent) -> Vec<&StockOffer> {
     let rank = |s: &StockOffer| match (s.form, s.stock) {
         (super::StockForm::Molar(m), _) if (m - 1.0).abs() < 1e-12 => (0, 0.0),
         (super::StockForm::Saturated, _) => (1, 0.0),

@@ -21,6 +21,10 @@ pub struct AdjustInputs {
     /// (SMILES, pKa list) as typed with `--pka`.
     pub pka_overrides: Vec<(String, String)>,
     pub estimate_only: bool,
+    /// `--organic`, `--solvent` and `--washes` as typed, when a second layer is in contact.
+    pub organic: Option<String>,
+    pub solvent: Option<String>,
+    pub washes: Option<u32>,
 }
 
 /// One solute as the report draws it: its curves and molar mass (g/mol), in input order.
@@ -167,8 +171,15 @@ fn solute_table(inputs: &AdjustInputs, results: &[Adjustment], solutes: &[Solute
 
 fn settings(inputs: &AdjustInputs, results: &[Adjustment]) -> Vec<(String, Cell)> {
     let text = |s: &str| Cell::Text(s.to_string());
-    let mut facts = vec![
-        ("Aqueous layer".to_string(), text(&inputs.water)),
+    let mut facts = vec![("Aqueous layer".to_string(), text(&inputs.water))];
+    if let Some(o) = &inputs.organic {
+        let solvent = inputs.solvent.as_deref().unwrap_or("?");
+        facts.push(("Organic layer".into(), text(&format!("{o} {solvent}"))));
+    }
+    if let Some(n) = inputs.washes {
+        facts.push(("Aqueous portions".into(), text(&n.to_string())));
+    }
+    facts.extend([
         ("Target pH".to_string(), text(&inputs.to_ph)),
         ("Reagent".to_string(), text(&inputs.reagent)),
         (
@@ -181,7 +192,7 @@ fn settings(inputs: &AdjustInputs, results: &[Adjustment]) -> Vec<(String, Cell)
                 )),
             },
         ),
-    ];
+    ]);
     if let Some(a) = results.first() {
         facts.push((
             "Temperature".into(),
