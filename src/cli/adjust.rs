@@ -59,6 +59,9 @@ pub struct Args {
     /// Ignore stored measured values and use the group estimates.
     #[arg(long)]
     pub estimate_only: bool,
+    /// Also write a printable report (one self-contained HTML file, A4) to FILE.
+    #[arg(long, value_name = "FILE")]
+    pub html: Option<std::path::PathBuf>,
 }
 
 /// Regroups the `--solute` values into (SMILES, amount) pairs. clap hands them over flat; a
@@ -410,6 +413,7 @@ pub fn run(args: &Args, cli: &Cli) -> Result<String> {
         Some(o) => adjust_with_organic(&request, o, &handbook, &catalogue)?,
         None => adjust(&request, &handbook, &catalogue)?,
     };
+    super::html::adjust(args, &request, &handbook, &results)?;
     match cli.format {
         Format::Table => Ok(table(&results)),
         Format::Csv => report::csv(&results.iter().map(CsvRow::from).collect::<Vec<_>>()),

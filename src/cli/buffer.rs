@@ -60,6 +60,9 @@ pub struct Args {
     /// List the buffer systems and their forms, and exit.
     #[arg(long)]
     pub list: bool,
+    /// Also write a printable report (one self-contained HTML file, A4) to FILE.
+    #[arg(long, value_name = "FILE")]
+    pub html: Option<std::path::PathBuf>,
 }
 
 fn molar(flag: &str, text: &str) -> Result<f64> {
@@ -321,6 +324,7 @@ pub fn run(args: &Args, cli: &Cli) -> Result<String> {
     let handbook = || Handbook::from_store(&store, args.estimate_only);
     let system = resolve(name, &systems, &handbook)?;
     let recipe = make(&system, &request, &store.reagents()?)?;
+    super::html::buffer(args, &system, &recipe)?;
     match cli.format {
         Format::Table => Ok(table(&recipe)),
         Format::Csv => csv(&recipe),

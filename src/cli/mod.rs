@@ -7,6 +7,7 @@ pub mod check;
 pub mod curve;
 pub mod db;
 pub mod demo;
+pub mod html;
 pub mod info;
 pub mod input;
 pub mod pka;
