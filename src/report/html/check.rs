@@ -231,10 +231,10 @@ fn step_table(c: &Checked) -> Table {
                 } else {
                     "-".into()
                 }),
-                Cell::Key(match s.problems.len() {
-                    0 => "none".into(),
-                    n => format!("{n} (see above)"),
-                }),
+                match s.problems.len() {
+                    0 => Cell::Num("none".into()),
+                    n => Cell::Key(format!("{n} (see Problems)")),
+                },
             ]
         })
         .collect();
