@@ -359,3 +359,75 @@ fn cautions(c: &Checked) -> Vec<String> {
         .chain(std::iter::once(c.cautions.as_slice()));
     merge_cautions(lists)
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::workup::procedure::report::{Problem, Snapshot, StepReport};
+
+    fn step(n: usize, cautions: &[&str], problems: Vec<Problem>) -> StepReport {
+        StepReport {
+            step: n,
+            line: 10 * n,
+            action: "add",
+            note: None,
+            did: "10.0 mL of 1M hcl".into(),
+            ph: Some(1.0),
+            portion_ph: vec![],
+            reagent_mol: Some(0.01),
+            co2_released_ml: 0.0,
+            layers: vec![],
+            problems,
+            cautions: cautions.iter().map(|c| c.to_string()).collect(),
+        }
+    }
+
+    fn checked() -> Checked {
+        let problem = Problem {
+            step: 2,
+            line: 20,
+            kind: "extraction_ph",
+            message: "too low".into(),
+            fix: "go higher".into(),
+        };
+        Checked {
+            title: None,
+            solvent: "mtbe".into(),
+            temperature_c: 25.0,
+            co2_mode: "vented",
+            product: None,
+            start: Snapshot {
+                ph: None,
+                layers: vec![],
+            },
+            steps: vec![
+                step(1, &["acid burns"], vec![]),
+                step(2, &["gas", "acid burns"], vec![problem.clone()]),
+            ],
+            problems: vec![problem.clone(), problem],
+            end: None,
+            cautions: vec!["solvent".into(), "defer to the SDS".into()],
+            notes: vec![],
+            verdict: "problems",
+        }
+    }
+
+    #[test]
+    fn step_cautions_come_first_once_each_and_the_deferral_last() {
+        assert_eq!(
+            cautions(&checked()),
+            ["acid burns", "gas", "solvent", "defer to the SDS"]
+        );
+    }
+
+    #[test]
+    fn the_verdict_names_each_step_with_a_problem_once() {
+        let lines = summary(&checked());
+        assert_eq!(
+            lines[0],
+            "2 problems found (step 2): each is listed below with its fix."
+        );
+        let a = alerts(&checked());
+        assert_eq!(a[0].heading, "Step 2, add (line 20): extraction ph");
+    }
+}
