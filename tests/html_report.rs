@@ -453,11 +453,13 @@ fn the_plan_report_holds_the_steps_fractions_and_recoveries_and_renders() {
     ];
     for s in steps {
         expect.push(fmt_ph(s["ph"].as_f64().unwrap()));
-        expect.push(match (s["stock_volume_ml"].as_f64(), s["reagent_mass_g"].as_f64()) {
-            (Some(ml), _) => fmt_volume(ml / 1e3),
-            (None, Some(g)) => phdose::units::fmt_mass(g),
-            _ => panic!("a step without an amount: {s}"),
-        });
+        expect.push(
+            match (s["stock_volume_ml"].as_f64(), s["reagent_mass_g"].as_f64()) {
+                (Some(ml), _) => fmt_volume(ml / 1e3),
+                (None, Some(g)) => phdose::units::fmt_mass(g),
+                _ => panic!("a step without an amount: {s}"),
+            },
+        );
         expect.push(phdose::units::fmt_moles(s["reagent_mol"].as_f64().unwrap()));
     }
     for f in v["fractions"].as_array().unwrap() {
@@ -474,7 +476,9 @@ fn the_plan_report_holds_the_steps_fractions_and_recoveries_and_renders() {
         assert!(shown.contains(e.as_str()), "page text lacks {e:?}");
     }
     // The answer comes first: step 1 is told before the inputs are listed.
-    let answer = shown.find("Step 1: wash at pH").expect("the answer in words");
+    let answer = shown
+        .find("Step 1: wash at pH")
+        .expect("the answer in words");
     assert!(answer < shown.find("The mixture, as given").unwrap());
     let cautions: Vec<&str> = v["cautions"]
         .as_array()

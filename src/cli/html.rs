@@ -24,9 +24,9 @@ use crate::report::html::plan::PlanInputs;
 use crate::report::html::{self, Report, merge_cautions};
 use crate::report::ionization::Compound;
 use crate::workup::adjust::{Adjustment, Request, SoluteInput};
-use crate::workup::procedure::Report as CheckedProcedure;
 use crate::workup::cautions::{Situation, cautions_for};
 use crate::workup::plan::{Plan, PlanRequest};
+use crate::workup::procedure::Report as CheckedProcedure;
 
 /// Builds the report and writes it to `path`, when one is asked for. Path problems are bad
 /// input (exit 2), a failed write an I/O error (exit 1); see [`html::write`].
@@ -126,9 +126,8 @@ pub fn plan(
 /// again for the page, and each compound's curves come from the same store the check used.
 pub fn check(args: &super::check::Args, cli: &Cli, checked: &CheckedProcedure) -> Result<()> {
     write_report(args.html.as_deref(), || {
-        let text = std::fs::read_to_string(&args.file).map_err(|e| {
-            Error::Input(format!("cannot read {}: {e}", args.file.display()))
-        })?;
+        let text = std::fs::read_to_string(&args.file)
+            .map_err(|e| Error::Input(format!("cannot read {}: {e}", args.file.display())))?;
         let handbook = Handbook::from_store(&open_store(&cli.db)?, args.estimate_only)?;
         let mut compounds = Vec::new();
         for h in checked.start.layers.iter().flat_map(|l| &l.compounds) {

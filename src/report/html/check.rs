@@ -131,7 +131,12 @@ fn alerts(c: &Checked) -> Vec<Alert> {
                 .find(|s| s.step == p.step)
                 .map_or(String::new(), |s| format!(", {}", s.action));
             Alert {
-                heading: format!("Step {}{action} (line {}): {}", p.step, p.line, kind_text(p.kind)),
+                heading: format!(
+                    "Step {}{action} (line {}): {}",
+                    p.step,
+                    p.line,
+                    kind_text(p.kind)
+                ),
                 message: p.message.clone(),
                 fix: p.fix.clone(),
             }
@@ -186,7 +191,10 @@ fn settings(inputs: &CheckInputs, c: &Checked) -> Vec<(String, Cell)> {
         ("Procedure file".into(), Cell::Code(inputs.file.clone())),
         ("Solvent".into(), text(&c.solvent)),
         ("At the start".into(), text(&volume)),
-        ("Temperature".into(), text(&format!("{} °C", c.temperature_c))),
+        (
+            "Temperature".into(),
+            text(&format!("{} °C", c.temperature_c)),
+        ),
         ("CO2".into(), text(c.co2_mode)),
         (
             "Product".into(),
@@ -318,7 +326,11 @@ fn end_table(end: &EndReport, c: &Checked) -> Table {
         .iter()
         .map(|h| {
             let product = c.product.as_deref() == Some(h.name.as_str());
-            let share = if total > 0.0 { 100.0 * h.mol / total } else { 0.0 };
+            let share = if total > 0.0 {
+                100.0 * h.mol / total
+            } else {
+                0.0
+            };
             vec![
                 Cell::Text(if product {
                     format!("{} (product)", h.name)
@@ -342,9 +354,15 @@ fn end_table(end: &EndReport, c: &Checked) -> Table {
             end.layer.phase,
             fmt_volume(end.layer.volume_ml / 1e3)
         )),
-        header: ["compound", "SMILES", "amount", "of the start", "of the layer"]
-            .map(String::from)
-            .to_vec(),
+        header: [
+            "compound",
+            "SMILES",
+            "amount",
+            "of the start",
+            "of the layer",
+        ]
+        .map(String::from)
+        .to_vec(),
         rows,
     }
 }

@@ -110,7 +110,12 @@ fn title(inputs: &PlanInputs, plan: &Plan) -> String {
 }
 
 /// What to measure per portion: `4.12 mL of 1M citric_acid`, `527 mg of solid naoh`.
-fn measure(stock_volume_ml: Option<f64>, mass_g: Option<f64>, stock: &str, reagent: &str) -> String {
+fn measure(
+    stock_volume_ml: Option<f64>,
+    mass_g: Option<f64>,
+    stock: &str,
+    reagent: &str,
+) -> String {
     match (stock_volume_ml, mass_g) {
         (Some(ml), _) => {
             let stock = if stock == "sat" { "saturated" } else { stock };
@@ -241,7 +246,10 @@ fn settings(inputs: &PlanInputs, plan: &Plan) -> Vec<(String, Cell)> {
                 None => text("not named"),
             },
         ),
-        ("Temperature".to_string(), text(&format!("{} °C", inputs.temp))),
+        (
+            "Temperature".to_string(),
+            text(&format!("{} °C", inputs.temp)),
+        ),
         (
             "Activity model".to_string(),
             text(if inputs.ideal {
@@ -452,6 +460,9 @@ mod tests {
             measure(Some(10.0), None, "sat", "nahco3"),
             "10.0 mL of saturated nahco3"
         );
-        assert_eq!(measure(None, Some(0.527), "solid", "naoh"), "527 mg of solid naoh");
+        assert_eq!(
+            measure(None, Some(0.527), "solid", "naoh"),
+            "527 mg of solid naoh"
+        );
     }
 }
