@@ -63,7 +63,7 @@ pub fn correct(mol: &Molecule, site: usize, series: &Series, look: &Lookup) -> O
         }
     }
     saturate_donors(&mut c, series);
-    cross_ring(mol, ring, ipso, series, look, &mut c);
+    cross_ring(mol, ring, ipso, series, look, &mut c, true);
     Some(c)
 }
 
@@ -75,10 +75,13 @@ pub fn correct(mol: &Molecule, site: usize, series: &Series, look: &Lookup) -> O
 const CROSS_RING: f64 = 0.48;
 
 /// Substituents on a fused six-membered aromatic ring (its own atoms next to the fusion count
-/// already as attached groups). Each counts with its sigma_m times `CROSS_RING`. Aza members
-/// farther out are left out: in quinazolines and pteridines covalent hydration and the
-/// saturation of several aza effects make further additive terms overshoot (Albert's
-/// pteridine work, from memory).
+/// already as attached groups). Each counts with its sigma_m times `CROSS_RING`. With
+/// `far_aza`, an aza member of the fused ring that is not next to the fusion (N6 or N7 seen
+/// from a quinoline N1) counts the same way, as a ring N for C-H substituent on that ring:
+/// 2,6-naphthyridine 3.9 and 2,7-naphthyridine 3.4 against isoquinoline 5.40 (rho 5.9) give
+/// 0.39 and 0.52 of the aza sigma_m 0.65, the share `CROSS_RING` describes (Albert 1960,
+/// from memory). Quinazolines and pteridines that hydrate covalently have their own group
+/// rows, whose parents carry these terms too, so they cancel there.
 fn cross_ring(
     mol: &Molecule,
     ring: &[usize],
@@ -86,6 +89,7 @@ fn cross_ring(
     series: &Series,
     look: &Lookup,
     c: &mut Correction,
+    far_aza: bool,
 ) {
     let six = |r: &&Vec<usize>| r.len() == 6 && r.iter().all(|&a| mol.atoms[a].aromatic);
     for fused in mol.rings.rings.iter().filter(six) {
@@ -105,6 +109,13 @@ fn cross_ring(
                     inductive: None,
                 });
             };
+            let next_to_fusion = mol.adjacency[f].iter().any(|&(y, _)| ring.contains(&y));
+            if far_aza
+                && !next_to_fusion
+                && let Some(row) = look.at(f, None, Position::Ring)
+            {
+                push(row);
+            }
             for &(y, _) in &mol.adjacency[f] {
                 // Atoms of further rings on this one (acridine-type) are not substituents.
                 let in_ring_with_f = mol
@@ -169,6 +180,9 @@ pub fn correct_five(
             }
         }
     }
+    // Substituents on a fused benzene-type ring (benzimidazoles); its aza members stay out,
+    // as the fused aza row already counts those next to the fusion.
+    cross_ring(mol, ring, site, series, look, &mut c, false);
     Some(c)
 }
 
