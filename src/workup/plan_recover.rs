@@ -112,8 +112,7 @@ pub fn recover(
     let layers = mixture.layers(&base, solvent_l, &portions.aqueous_mol, with_ions)?;
     let here = layers::equilibrate(&layers, conditions)?.ph;
     let target = best_ph(mixture, intended, here);
-    let choice = bench_dose(&layers, target, volume / 2.0, conditions, catalogue)?;
-    let dosed = &choice.dose;
+    let (choice, dosed) = layers::choose_auto(&layers, target, conditions, catalogue)?;
     let after = layers::with_reagent(
         &layers,
         &choice.reagent,
@@ -175,98 +174,4 @@ pub fn recover(
         co2_released_mol: extraction.co2_released_mol,
         note,
     })
-}
-
-/// A reagent, stock and dose a plan step uses.
-pub struct BenchDose {
-    pub reagent: Reagent,
-    pub stock: StockOffer,
-    pub dose: layers::TwoLayerDose,
-    pub reason: String,
-}
-
-/// The mildest reagent (table order of mildness) with a stock that reaches `target` using at
-/// most `max_volume_l` of solution and a sensible amount (a solid always qualifies: it is capped by its solubility);
-/// if none stays under that volume, the one that needs the least. A weak acid such as acetic
-/// acid reaches pH 2.7 only with litres of stock, which no one would add to a funnel.
-pub fn bench_dose(
-    two: &layers::TwoLayers,
-    target: f64,
-    max_volume_l: f64,
-    conditions: &Conditions,
-    catalogue: &[Reagent],
-) -> Result<BenchDose> {
-    let start = layers::equilibrate(two, conditions)?.ph;
-    let role = if target >= start {
-        crate::equilibrium::Role::Base
-    } else {
-        crate::equilibrium::Role::Acid
-    };
-    let mut candidates: Vec<&Reagent> = catalogue.iter().filter(|r| r.role == role).collect();
-    candidates.sort_by_key(|r| r.mildness);
-    let mut fallback: Option<BenchDose> = None;
-    let mut too_much = Vec::new();
-    for reagent in candidates {
-        for stock in equilibrium::dose::stocks_in_order(reagent) {
-            let Ok(d) = layers::dose(two, reagent, stock, target, conditions) else {
-                continue;
-            };
-            let volume = d.dose.stock_volume_l.unwrap_or(0.0);
-            let found = BenchDose {
-                reagent: reagent.clone(),
-                stock: stock.clone(),
-                reason: String::new(),
-                dose: d,
-            };
-            // Sensible amount: what the solutes can take (a few equivalents) plus what the
-            // water itself needs, with 0.2 mol/L of slack: a weak acid or base far from its
-            // own pKa would need tens of equivalents.
-            let solutes: f64 = two.aqueous.solutes.iter().map(|p| p.total_mol).sum();
-            let sensible = 5.0 * solutes + 0.2 * two.aqueous.volume_l;
-            if volume <= max_volume_l && found.dose.dose.reagent_mol <= sensible {
-                let skipped = if too_much.is_empty() {
-                    String::new()
-                } else {
-                    format!("; milder ones need too much stock: {}", too_much.join(", "))
-                };
-                return Ok(BenchDose {
-                    reason: format!(
-                        "{} ({}) is the mildest listed reagent that takes the layer from pH {} \
-                         to {} with at most {:.0} mL of stock{skipped}",
-                        reagent.name,
-                        stock.label(),
-                        fmt_ph(start),
-                        fmt_ph(target),
-                        max_volume_l * 1e3
-                    ),
-                    ..found
-                });
-            }
-            if !too_much.contains(&reagent.name) {
-                too_much.push(reagent.name.clone());
-            }
-            let better = fallback
-                .as_ref()
-                .is_none_or(|f| volume < f.dose.dose.stock_volume_l.unwrap_or(0.0));
-            if better {
-                fallback = Some(found);
-            }
-        }
-    }
-    match fallback {
-        Some(f) => Ok(BenchDose {
-            reason: format!(
-                "{} ({}) needs the least stock of the reagents that reach pH {}",
-                f.reagent.name,
-                f.stock.label(),
-                fmt_ph(target)
-            ),
-            ..f
-        }),
-        None => Err(crate::Error::Unreachable(format!(
-            "no listed reagent takes the layer from pH {} to {}",
-            fmt_ph(start),
-            fmt_ph(target)
-        ))),
-    }
 }
