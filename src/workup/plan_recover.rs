@@ -11,7 +11,7 @@ use super::layers::{self, OrganicLayer};
 use super::mixture::Mixture;
 use super::plan::{Fraction, max_log_d};
 use super::washes::{Portions, extract};
-use crate::equilibrium::{self, AqueousLayer, Conditions, Reagent, Stock, StockOffer};
+use crate::equilibrium::{self, AqueousLayer, AutoChoice, Conditions, Reagent, Stock, StockOffer};
 use crate::error::Result;
 use crate::units::fmt_ph;
 
@@ -78,22 +78,11 @@ fn best_ph(mixture: &Mixture, members: &[usize], from: f64) -> f64 {
         .unwrap_or(from)
 }
 
-/// Plans the recovery of `intended` (member indices) from the aqueous fraction `fraction`
-/// that `portions` made with `step`.
-#[allow(clippy::too_many_arguments)]
-pub fn recover(
-    mixture: &Mixture,
-    organic: &OrganicLayer,
-    fraction: &Fraction,
-    intended: &[usize],
-    portions: &Portions,
-    step: StepReagent,
-    conditions: &Conditions,
-    catalogue: &[Reagent],
-) -> Result<Recovery> {
-    let (reagent, _stock, mol, count, with_ions) = step;
+/// The fraction's combined portions as one aqueous layer: the reagent of every portion, the
+/// carbon still dissolved after venting (the solutes are added by the caller).
+fn combined_portions(portions: &Portions, step: StepReagent) -> AqueousLayer {
+    let (reagent, _stock, mol, count, _) = step;
     let volume: f64 = portions.states.iter().map(|s| s.aqueous_volume_l).sum();
-    // The combined portions: the reagent of every portion, the carbon still dissolved.
     let mut base = equilibrium::dose::with_reagent(
         &AqueousLayer::water(volume),
         reagent,
@@ -108,6 +97,55 @@ pub fn recover(
             c.co2_mol + c.bicarbonate_mol + c.carbonate_mol
         })
         .sum();
+    base
+}
+
+/// One sentence: from which pH to which, with what, then the extraction; a warning when the
+/// least extractable compound's best logD (`worst`) stays low.
+fn recovery_note(
+    (here, target): (f64, f64),
+    choice: &AutoChoice,
+    organic: &OrganicLayer,
+    names: &[String],
+    worst: f64,
+) -> String {
+    let direction = if target < here { "acidify" } else { "basify" };
+    let mut note = format!(
+        "{direction} the combined step portions from pH {} to {} with {} ({}), then extract \
+         with {} × {:.0} mL {}",
+        fmt_ph(here),
+        fmt_ph(target),
+        choice.reagent.name,
+        choice.stock.label(),
+        BACK_PORTIONS,
+        organic.volume_l / 2.0 * 1e3,
+        organic.solvent.name
+    );
+    if worst < POOR_LOG_D {
+        note += &format!(
+            "; {} is poorly extractable (highest logD {worst:.1}): saturate the water with NaCl \
+             or evaporate it instead",
+            names.join(", ")
+        );
+    }
+    note
+}
+
+/// Plans the recovery of `intended` (member indices) from the aqueous fraction `fraction`
+/// that `portions` made with `step`.
+#[allow(clippy::too_many_arguments)]
+pub fn recover(
+    mixture: &Mixture,
+    organic: &OrganicLayer,
+    fraction: &Fraction,
+    intended: &[usize],
+    portions: &Portions,
+    step: StepReagent,
+    conditions: &Conditions,
+    catalogue: &[Reagent],
+) -> Result<Recovery> {
+    let with_ions = step.4;
+    let base = combined_portions(portions, step);
     let solvent_l = organic.volume_l / 2.0;
     let layers = mixture.layers(&base, solvent_l, &portions.aqueous_mol, with_ions)?;
     let here = layers::equilibrate(&layers, conditions)?.ph;
@@ -139,25 +177,7 @@ pub fn recover(
         .iter()
         .map(|&m| max_log_d(mixture, m))
         .fold(f64::INFINITY, f64::min);
-    let direction = if target < here { "acidify" } else { "basify" };
-    let mut note = format!(
-        "{direction} the combined step portions from pH {} to {} with {} ({}), then extract \
-         with {} × {:.0} mL {}",
-        fmt_ph(here),
-        fmt_ph(target),
-        choice.reagent.name,
-        choice.stock.label(),
-        BACK_PORTIONS,
-        solvent_l * 1e3,
-        organic.solvent.name
-    );
-    if worst < POOR_LOG_D {
-        note += &format!(
-            "; {} is poorly extractable (highest logD {worst:.1}): saturate the water with NaCl \
-             or evaporate it instead",
-            names.join(", ")
-        );
-    }
+    let note = recovery_note((here, target), &choice, organic, &names, worst);
     Ok(Recovery {
         fraction: fraction.layer.clone(),
         smiles: names,
