@@ -349,3 +349,204 @@ fn the_buffer_report_holds_the_recipe_and_renders() {
     std::fs::remove_dir_all(&dir).ok();
     std::fs::remove_dir_all(&work).ok();
 }
+
+/// Renders `page` in headless Chromium at A4 proportions and checks the picture is not blank
+/// and the curves are drawn; returns the page text as Chromium builds it.
+fn render(page: &Path, work: &Path) -> String {
+    let shot = work.join("out.png");
+    let o = run_chromium(
+        page,
+        &[
+            &format!("--screenshot={}", shot.display()),
+            "--window-size=1240,1754",
+        ],
+        work,
+    );
+    assert!(o.status.success(), "chromium: {}", text(&o.stderr));
+    let (width, height, ink, _) = png_stats(&shot);
+    assert_eq!((width, height), (1240, 1754));
+    let pixels = (width * height) as f64;
+    assert!(
+        ink as f64 / pixels > 0.01,
+        "too little ink: {ink} of {pixels} pixels"
+    );
+    let dom = run_chromium(page, &["--dump-dom"], work);
+    assert!(dom.status.success(), "chromium: {}", text(&dom.stderr));
+    // The first page holds the answer and tables, not the figure: look for the curve colour
+    // on a tall shot of the whole page.
+    let tall = work.join("tall.png");
+    let o = run_chromium(
+        page,
+        &[
+            &format!("--screenshot={}", tall.display()),
+            "--window-size=1240,6000",
+        ],
+        work,
+    );
+    assert!(o.status.success(), "chromium: {}", text(&o.stderr));
+    let (_, _, _, curve) = png_stats(&tall);
+    assert!(
+        curve > 200,
+        "the curves are not drawn ({curve} blue pixels)"
+    );
+    visible_text(&text(&dom.stdout))
+}
+
+/// The page must fetch nothing: no sources, links, scripts or styles from elsewhere.
+fn assert_self_contained(html: &str) {
+    for outside in [
+        "src=", "href=", "<script", "<link", "<img", "@import", "url(",
+    ] {
+        assert!(
+            !html.contains(outside),
+            "the report must not reference {outside}"
+        );
+    }
+    assert!(html.contains("<svg") && html.contains("size: A4"));
+}
+
+#[test]
+fn the_plan_report_holds_the_steps_fractions_and_recoveries_and_renders() {
+    // Our own scenario: benzoic acid, triethylamine and naphthalene in ethyl acetate; the
+    // naphthalene is wanted. Two washes (acid, then base) split the three.
+    let dir = temp_dir("plan");
+    let run = [
+        "plan",
+        "--solute",
+        "OC(=O)c1ccccc1",
+        "2mmol",
+        "--solute",
+        "CCN(CC)CC 1.5mmol",
+        "--solute",
+        "c1ccc2ccccc2c1",
+        "128mg",
+        "--organic",
+        "50mL",
+        "--solvent",
+        "ethyl acetate",
+        "--keep",
+        "c1ccc2ccccc2c1",
+    ];
+    let json = phdose(&dir, &[&run[..], &["--format", "json"]].concat());
+    assert!(json.status.success(), "{}", text(&json.stderr));
+    let v: Value = serde_json::from_slice(&json.stdout).unwrap();
+    let page = dir.join("plan.html");
+    let plain = phdose(&dir, &run);
+    let o = phdose(
+        &dir,
+        &[&run[..], &["--html", page.to_str().unwrap()]].concat(),
+    );
+    assert!(o.status.success(), "{}", text(&o.stderr));
+    assert_eq!(text(&plain.stdout), text(&o.stdout));
+    let html = std::fs::read_to_string(&page).unwrap();
+    assert_self_contained(&html);
+
+    let work = temp_dir("plan-chromium");
+    let shown = render(&page, &work);
+    let steps = v["steps"].as_array().unwrap();
+    assert!(!steps.is_empty(), "this mixture separates: {v}");
+    let mut expect = vec![
+        "OC(=O)c1ccccc1".to_string(),
+        "CCN(CC)CC".to_string(),
+        "c1ccc2ccccc2c1".to_string(),
+        "128mg".to_string(),
+    ];
+    for s in steps {
+        expect.push(fmt_ph(s["ph"].as_f64().unwrap()));
+        expect.push(
+            match (s["stock_volume_ml"].as_f64(), s["reagent_mass_g"].as_f64()) {
+                (Some(ml), _) => fmt_volume(ml / 1e3),
+                (None, Some(g)) => phdose::units::fmt_mass(g),
+                _ => panic!("a step without an amount: {s}"),
+            },
+        );
+        expect.push(phdose::units::fmt_moles(s["reagent_mol"].as_f64().unwrap()));
+    }
+    for f in v["fractions"].as_array().unwrap() {
+        expect.push(format!("{:.1} %", 100.0 * f["purity"].as_f64().unwrap()));
+        expect.push(format!("{:.1} %", 100.0 * f["recovery"].as_f64().unwrap()));
+    }
+    for r in v["recoveries"].as_array().unwrap() {
+        expect.push(format!(
+            "{} %",
+            phdose::report::sig(100.0 * r["overall"].as_f64().unwrap(), 3)
+        ));
+    }
+    for e in &expect {
+        assert!(shown.contains(e.as_str()), "page text lacks {e:?}");
+    }
+    // The answer comes first: step 1 is told before the inputs are listed.
+    let answer = shown
+        .find("Step 1: wash at pH")
+        .expect("the answer in words");
+    assert!(answer < shown.find("The mixture, as given").unwrap());
+    let cautions: Vec<&str> = v["cautions"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|c| c.as_str().unwrap())
+        .collect();
+    let last = cautions.last().unwrap();
+    assert!(last.contains("SDS"));
+    let at = shown.rfind(last).expect("the deferral is shown");
+    for c in &cautions {
+        assert!(shown.find(c).is_some_and(|i| i <= at), "{c}");
+    }
+    std::fs::remove_dir_all(&dir).ok();
+    std::fs::remove_dir_all(&work).ok();
+}
+
+#[test]
+fn the_check_report_is_written_with_its_problem_and_fix_and_renders() {
+    // examples/amine-back-extraction-ph.toml carries a planted mistake: the back-extraction
+    // runs at pH 8, where the amine is still mostly protonated.
+    let dir = temp_dir("check");
+    let file = concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/examples/amine-back-extraction-ph.toml"
+    );
+    let json = phdose(&dir, &["check", file, "--format", "json"]);
+    assert_eq!(json.status.code(), Some(4), "{}", text(&json.stderr));
+    let v: Value = serde_json::from_slice(&json.stdout).unwrap();
+    let page = dir.join("check.html");
+    let o = phdose(&dir, &["check", file, "--html", page.to_str().unwrap()]);
+    // Problems found: exit 4 stays, and the report is written all the same.
+    assert_eq!(o.status.code(), Some(4), "{}", text(&o.stderr));
+    let html = std::fs::read_to_string(&page).expect("the report is written");
+    assert_self_contained(&html);
+
+    let work = temp_dir("check-chromium");
+    let shown = render(&page, &work);
+    let problems = v["problems"].as_array().unwrap();
+    assert_eq!(problems.len(), 1, "{v}");
+    let message = problems[0]["message"].as_str().unwrap();
+    let fix = problems[0]["fix"].as_str().unwrap();
+    assert!(message.contains("pH 8.00"), "{message}");
+    let at = shown.find(message).expect("the problem is shown");
+    assert!(shown[at..].contains(fix), "the fix follows the problem");
+    // Prominent: the problem comes before the step table and the inputs.
+    assert!(at < shown.find("The mixture, as written").unwrap());
+    for s in v["steps"].as_array().unwrap() {
+        if let Some(ph) = s["ph"].as_f64() {
+            assert!(shown.contains(&fmt_ph(ph)), "page text lacks pH {ph}");
+        }
+    }
+    let end = &v["end"];
+    let recovered = format!("{:.1} %", end["product_recovery_pct"].as_f64().unwrap());
+    assert!(shown.contains(&recovered), "page text lacks {recovered}");
+    for smiles in ["CNCc1ccccc1", "CC(=O)c1ccccc1"] {
+        assert!(shown.contains(smiles), "page text lacks {smiles}");
+    }
+    // Every step's cautions and the procedure's, the deferral last of all.
+    let deferral = v["cautions"].as_array().unwrap().last().unwrap();
+    let deferral = deferral.as_str().unwrap();
+    let at = shown.rfind(deferral).expect("the deferral is shown");
+    for s in v["steps"].as_array().unwrap() {
+        for c in s["cautions"].as_array().unwrap() {
+            let c = c.as_str().unwrap();
+            assert!(shown.find(c).is_some_and(|i| i < at), "{c}");
+        }
+    }
+    std::fs::remove_dir_all(&dir).ok();
+    std::fs::remove_dir_all(&work).ok();
+}

@@ -20,6 +20,10 @@ pub struct Args {
     /// Ignore stored measured values and use the group estimates.
     #[arg(long)]
     pub estimate_only: bool,
+    /// Also write a printable report (one self-contained HTML file, A4) to FILE; written when
+    /// problems are found as well.
+    #[arg(long, value_name = "FILE")]
+    pub html: Option<PathBuf>,
 }
 
 /// Reads the file and builds the report data (also what an HTML report starts from).
@@ -34,6 +38,7 @@ pub fn report_for(args: &Args, cli: &Cli) -> Result<Report> {
 
 pub fn run(args: &Args, cli: &Cli) -> Result<String> {
     let r = report_for(args, cli)?;
+    super::html::check(args, cli, &r)?;
     let text = match cli.format {
         Format::Table => table(&r),
         Format::Csv => report::csv(&csv_rows(&r))?,

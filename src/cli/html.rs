@@ -4,23 +4,29 @@
 //! hook every command shares: a command builds its [`Report`] and hands it over, as in
 //! `write_report(args.html.as_deref(), || Ok(my_report(&result)))?`. [`adjust`] and
 //! [`buffer`] gather what their reports need that the results do not hold: the flags as
-//! typed, each solute's curves, the cautions of what is handled.
+//! typed, each solute's curves, the cautions of what is handled; [`plan`] and [`check`] the
+//! same for theirs.
 
 use std::path::Path;
 
-use super::adjust::Args;
+use super::adjust::{Args, solute_pairs};
 use super::curve::logp_of;
+use super::{Cli, open_store};
 use crate::acidity::{Handbook, Profile};
 use crate::buffer::{BufferSystem, Recipe};
 use crate::chem::formula::molar_mass;
 use crate::equilibrium::StockForm;
-use crate::error::Result;
+use crate::error::{Error, Result};
 use crate::report::html::adjust::{AdjustInputs, SoluteCurves, report};
 use crate::report::html::buffer::BufferInputs;
+use crate::report::html::check::CheckInputs;
+use crate::report::html::plan::PlanInputs;
 use crate::report::html::{self, Report, merge_cautions};
 use crate::report::ionization::Compound;
-use crate::workup::adjust::{Adjustment, Request};
+use crate::workup::adjust::{Adjustment, Request, SoluteInput};
 use crate::workup::cautions::{Situation, cautions_for};
+use crate::workup::plan::{Plan, PlanRequest};
+use crate::workup::procedure::Report as CheckedProcedure;
 
 /// Builds the report and writes it to `path`, when one is asked for. Path problems are bad
 /// input (exit 2), a failed write an I/O error (exit 1); see [`html::write`].
@@ -59,22 +65,81 @@ pub fn adjust(
             solvent: args.solvent.clone(),
             washes: args.washes,
         };
-        let mut curves = Vec::with_capacity(request.solutes.len());
-        for s in &request.solutes {
-            // The same profile `adjust` solved with, user pKa values included.
-            let mut profile = Profile::new(&s.smiles, handbook)?;
-            if let Some(values) = &s.pka_override {
-                profile.override_pkas(values)?;
-            }
-            let logp = logp_of(&profile, args.estimate_only)?;
-            let mut compound = Compound::new(&profile, logp.as_ref().map(|l| l.log_p));
-            compound.logp_source = logp.map(|l| l.source);
-            curves.push(SoluteCurves {
-                compound,
-                molar_mass: molar_mass(&profile.molecule),
-            });
-        }
+        let curves = solute_curves(&request.solutes, handbook, args.estimate_only)?;
         Ok(report(&inputs, results, &curves))
+    })
+}
+
+/// Each solute's curves and molar mass, from the same profile the command solved with (user
+/// pKa values included), in input order.
+fn solute_curves(
+    solutes: &[SoluteInput],
+    handbook: &Handbook,
+    estimate_only: bool,
+) -> Result<Vec<SoluteCurves>> {
+    let mut curves = Vec::with_capacity(solutes.len());
+    for s in solutes {
+        let mut profile = Profile::new(&s.smiles, handbook)?;
+        if let Some(values) = &s.pka_override {
+            profile.override_pkas(values)?;
+        }
+        curves.push(SoluteCurves {
+            compound: compound_of(&profile, estimate_only)?,
+            molar_mass: molar_mass(&profile.molecule),
+        });
+    }
+    Ok(curves)
+}
+
+/// The curves of one profile, with its octanol logP where one is known.
+fn compound_of(profile: &Profile, estimate_only: bool) -> Result<Compound> {
+    let logp = logp_of(profile, estimate_only)?;
+    let mut compound = Compound::new(profile, logp.as_ref().map(|l| l.log_p));
+    compound.logp_source = logp.map(|l| l.source);
+    Ok(compound)
+}
+
+/// The `plan` report of `result` for the run `args` / `request`, written to `args.html`.
+pub fn plan(
+    args: &super::plan::Args,
+    request: &PlanRequest,
+    handbook: &Handbook,
+    result: &Plan,
+) -> Result<()> {
+    write_report(args.html.as_deref(), || {
+        let inputs = PlanInputs {
+            solutes: solute_pairs(&args.solute)?,
+            organic: args.organic.clone(),
+            solvent: args.solvent.clone(),
+            water: args.water.clone(),
+            keep: args.keep.clone(),
+            temp: args.temp.clone(),
+            ideal: args.ideal,
+            estimate_only: args.estimate_only,
+        };
+        let curves = solute_curves(&request.solutes, handbook, args.estimate_only)?;
+        Ok(html::plan::report(&inputs, result, &curves))
+    })
+}
+
+/// The `check` report of `checked`, written to `args.html` (problems or not). The file is read
+/// again for the page, and each compound's curves come from the same store the check used.
+pub fn check(args: &super::check::Args, cli: &Cli, checked: &CheckedProcedure) -> Result<()> {
+    write_report(args.html.as_deref(), || {
+        let text = std::fs::read_to_string(&args.file)
+            .map_err(|e| Error::Input(format!("cannot read {}: {e}", args.file.display())))?;
+        let handbook = Handbook::from_store(&open_store(&cli.db)?, args.estimate_only)?;
+        let mut compounds = Vec::new();
+        for h in checked.start.layers.iter().flat_map(|l| &l.compounds) {
+            let profile = Profile::new(&h.smiles, &handbook)?;
+            compounds.push(compound_of(&profile, args.estimate_only)?);
+        }
+        let inputs = CheckInputs {
+            file: args.file.display().to_string(),
+            text,
+            estimate_only: args.estimate_only,
+        };
+        Ok(html::check::report(&inputs, checked, &compounds))
     })
 }
 

@@ -39,6 +39,9 @@ pub struct Args {
     /// Ignore stored measured values (pKa and logP) and use the estimates.
     #[arg(long)]
     pub estimate_only: bool,
+    /// Also write a printable report (one self-contained HTML file, A4) to FILE.
+    #[arg(long, value_name = "FILE")]
+    pub html: Option<std::path::PathBuf>,
 }
 
 /// Turns the flags into a request.
@@ -200,6 +203,7 @@ pub fn run(args: &Args, cli: &Cli) -> Result<String> {
     let handbook = Handbook::from_store(&store, args.estimate_only)?;
     let catalogue = store.reagents()?;
     let result = plan(&request, &handbook, &catalogue)?;
+    super::html::plan(args, &request, &handbook, &result)?;
     match cli.format {
         Format::Table => Ok(table(&result)),
         Format::Csv => report::csv(

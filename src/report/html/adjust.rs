@@ -84,7 +84,7 @@ fn title(inputs: &AdjustInputs, results: &[Adjustment]) -> String {
 }
 
 /// A pH as typed by a chemist: `8`, `7.4`, `2.25`.
-fn short_ph(ph: f64) -> String {
+pub(super) fn short_ph(ph: f64) -> String {
     let s = format!("{ph:.2}");
     s.trim_end_matches('0').trim_end_matches('.').to_string()
 }
@@ -376,7 +376,7 @@ fn notes(results: &[Adjustment]) -> Vec<String> {
 }
 
 /// Each text once, in first-seen order.
-fn unique<'a>(items: impl Iterator<Item = &'a String>) -> Vec<String> {
+pub(super) fn unique<'a>(items: impl Iterator<Item = &'a String>) -> Vec<String> {
     let mut out: Vec<String> = Vec::new();
     for item in items {
         if !out.contains(item) {

@@ -11,8 +11,10 @@
 
 pub mod adjust;
 pub mod buffer;
+pub mod check;
 mod date;
 pub mod figure;
+pub mod plan;
 
 use std::fmt::Write as _;
 use std::path::Path;
@@ -93,6 +95,19 @@ pub enum Block {
     },
     /// A paragraph of plain text.
     Text(String),
+    /// What went wrong, each with its fix, set apart so that it cannot be missed: a
+    /// heading (`Step 3 (line 33)`), the problem and the fix.
+    Alerts(Vec<Alert>),
+    /// Text exactly as the user wrote it (a procedure file), in monospace with its lines.
+    Listing(String),
+}
+
+/// One problem as a report shows it.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Alert {
+    pub heading: String,
+    pub message: String,
+    pub fix: String,
 }
 
 /// A titled part of the report.
@@ -251,6 +266,23 @@ fn write_section(out: &mut String, section: &Section) {
             Block::Text(t) => {
                 let _ = writeln!(out, "<p>{}</p>", escape(t));
             }
+            Block::Alerts(alerts) => {
+                out.push_str("<ol class=\"alerts\" role=\"alert\">\n");
+                for a in alerts {
+                    let _ = writeln!(
+                        out,
+                        "<li><p class=\"where\">{}</p><p class=\"what\">{}</p>\
+                         <p class=\"fix\"><span>Fix:</span> {}</p></li>",
+                        escape(&a.heading),
+                        escape(&a.message),
+                        escape(&a.fix)
+                    );
+                }
+                out.push_str("</ol>\n");
+            }
+            Block::Listing(t) => {
+                let _ = writeln!(out, "<pre class=\"listing\">{}</pre>", escape(t));
+            }
         }
     }
     out.push_str("</section>\n");
@@ -397,6 +429,27 @@ mod tests {
         let merged = merge_cautions([first.as_slice(), second.as_slice()]);
         assert_eq!(merged, ["corrosive", "gas", "defer"]);
         assert!(merge_cautions([]).is_empty());
+    }
+
+    #[test]
+    fn alerts_and_listings_are_escaped_and_set_apart() {
+        let mut r = sample();
+        r.sections.push(Section {
+            title: "Problems".into(),
+            blocks: vec![
+                Block::Alerts(vec![Alert {
+                    heading: "Step 3 (line 33)".into(),
+                    message: "pH <8".into(),
+                    fix: "go > 11".into(),
+                }]),
+                Block::Listing("do = \"add\"\n# a & b".into()),
+            ],
+        });
+        let html = r.to_html();
+        assert!(html.contains("<ol class=\"alerts\" role=\"alert\">"));
+        assert!(html.contains("<p class=\"what\">pH &lt;8</p>"));
+        assert!(html.contains("<span>Fix:</span> go &gt; 11"));
+        assert!(html.contains("<pre class=\"listing\">do = &quot;add&quot;\n# a &amp; b</pre>"));
     }
 
     #[test]
