@@ -14,8 +14,8 @@ pub mod species;
 pub mod water;
 
 pub use activity::{DAVIES_LIMIT_M, Gammas};
-pub use carbonate::{CarbonateSpecies, Co2Mode};
 pub use auto::{AutoChoice, Practical, choose_auto};
+pub use carbonate::{CarbonateSpecies, Co2Mode};
 pub use dose::{Dose, dose, dose_with_alternatives, reachable_range};
 pub use microstates::Coupling;
 pub use polyprotic::Polyprotic;

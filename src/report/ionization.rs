@@ -65,7 +65,12 @@ impl Compound {
             macro_pka: constants.macro_pka,
             logp,
             logp_source: None,
-            notes: profile.notes.iter().cloned().chain(constants.note).collect(),
+            notes: profile
+                .notes
+                .iter()
+                .cloned()
+                .chain(constants.note)
+                .collect(),
             protolytes,
         }
     }

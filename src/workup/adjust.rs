@@ -193,7 +193,11 @@ pub fn adjust(
             let (reagent, offer, why) = if auto {
                 let choice =
                     equilibrium::choose_auto(&layer, target, &request.conditions, catalogue)?;
-                (choice.reagent, choice.stock, Some(format!("auto: {}", choice.reason)))
+                (
+                    choice.reagent,
+                    choice.stock,
+                    Some(format!("auto: {}", choice.reason)),
+                )
             } else {
                 let reagent = Reagent::find(catalogue, &request.reagent)?;
                 let offer = choose_stock(reagent, request.stock.as_deref())?;

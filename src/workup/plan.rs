@@ -383,8 +383,14 @@ fn wash_steps(bench: &Bench, stuck: &[usize]) -> Result<Washes> {
     while let Some(candidate) = choose_step(mixture, &left, bench.va, bench.organic.volume_l) {
         // The members that never leave water go with the first step.
         let with: &[usize] = if washes.steps.is_empty() { stuck } else { &[] };
-        let (step, fraction, layers) =
-            simulate_step(bench, &candidate, &moles, &left, with, washes.steps.len() + 1)?;
+        let (step, fraction, layers) = simulate_step(
+            bench,
+            &candidate,
+            &moles,
+            &left,
+            with,
+            washes.steps.len() + 1,
+        )?;
         moles = layers.portions.organic_mol.clone();
         left.retain(|m| !candidate.moves.contains(m));
         washes.steps.push(step);
@@ -437,7 +443,12 @@ fn simulate_step(
         })
         .collect();
     let contents: Vec<f64> = mains.iter().map(|&i| portions.aqueous_mol[i]).collect();
-    let fraction = fraction(mixture, format!("aqueous (step {number})"), &moves, contents);
+    let fraction = fraction(
+        mixture,
+        format!("aqueous (step {number})"),
+        &moves,
+        contents,
+    );
     let step = Step {
         step: number,
         ph: candidate.ph,
@@ -477,9 +488,7 @@ fn inseparable_notes(bench: &Bench, left: &[usize]) -> Vec<String> {
                 "No pH separates {} and {}: their logD curves run too close together (acid or \
                  base strengths too alike for this solvent); they stay together in the {} layer \
                  — use chromatography or crystallization for that pair.",
-                mixture.members[a].smiles,
-                mixture.members[b].smiles,
-                bench.organic.solvent.name
+                mixture.members[a].smiles, mixture.members[b].smiles, bench.organic.solvent.name
             )
         })
         .collect()
