@@ -137,6 +137,8 @@ fn options(args: &Args) -> Result<(Options, f64)> {
         to,
         charge: args.charge,
         marks,
+        // `curve` has no --temp: the pKa values are the 25 °C ones.
+        temperature_c: 25.0,
     };
     Ok((o, step))
 }

@@ -193,7 +193,11 @@ pub fn adjust(
             let (reagent, offer, why) = if auto {
                 let choice =
                     equilibrium::choose_auto(&layer, target, &request.conditions, catalogue)?;
-                (choice.reagent, choice.stock, Some(choice.reason))
+                (
+                    choice.reagent,
+                    choice.stock,
+                    Some(format!("auto: {}", choice.reason)),
+                )
             } else {
                 let reagent = Reagent::find(catalogue, &request.reagent)?;
                 let offer = choose_stock(reagent, request.stock.as_deref())?;
@@ -244,24 +248,7 @@ const GAS_CONSTANT_L_ATM: f64 = 0.082_057_366;
 pub(super) fn report(ctx: &Context, dose: &Dose, target: f64) -> Result<Adjustment> {
     let (prepared, reagent, conditions) = (ctx.prepared, ctx.reagent, ctx.conditions);
     let eq = &dose.equilibrium;
-    let mut states = eq.solutes.iter();
-    let mut solutes = Vec::new();
-    for p in prepared {
-        let parents = &p.profile.compound.parents;
-        let these: Vec<_> = states.by_ref().take(parents.len()).collect();
-        // The main component (most atoms) stands for the compound's extractable share.
-        let main = (0..parents.len()).max_by_key(|&i| parents[i].atoms.len());
-        solutes.push(SoluteReport {
-            smiles: p.profile.smiles.clone(),
-            amount_mol: p.amount_mol,
-            sites: p.profile.sites.clone(),
-            fraction_neutral: main.map_or(1.0, |i| these[i].fraction_neutral),
-            fraction_aqueous: 1.0,
-            fraction_organic: 0.0,
-            log_d: None,
-            mean_charge: these.iter().map(|s| s.mean_charge).sum(),
-        });
-    }
+    let solutes = solute_reports(prepared, eq);
     let carbon = &eq.carbonate;
     let released_ml = carbon.released_mol * GAS_CONSTANT_L_ATM * conditions.temperature_k() * 1e3;
     // Gas: CO2 left the layer, or (closed) CO2 formed that would leave an open funnel.
@@ -279,20 +266,7 @@ pub(super) fn report(ctx: &Context, dose: &Dose, target: f64) -> Result<Adjustme
         released_ml,
         ctx.limit_ph,
     ));
-    for p in prepared {
-        if let Some(b) = &p.profile.compound.balanced_with {
-            notes.push(format!(
-                "{} carries a charge; taken as its salt with {b}.",
-                p.profile.smiles
-            ));
-        }
-        if p.profile.sites.is_empty() {
-            notes.push(format!(
-                "{} has no site that titrates in water; it stays neutral.",
-                p.profile.smiles
-            ));
-        }
-    }
+    notes.extend(solute_notes(prepared));
     notes.extend(model_notes(prepared, conditions, eq.ionic_strength));
     let total_solute_mol = ctx.total_solute_mol;
     let start_ph = ctx.start_ph;
@@ -330,6 +304,49 @@ pub(super) fn report(ctx: &Context, dose: &Dose, target: f64) -> Result<Adjustme
         layers: None,
         washes: None,
     })
+}
+
+/// Each solute at the layer's equilibrium `eq` (one layer: all of it aqueous).
+fn solute_reports(prepared: &[Prepared], eq: &equilibrium::Equilibrium) -> Vec<SoluteReport> {
+    let mut states = eq.solutes.iter();
+    let mut solutes = Vec::new();
+    for p in prepared {
+        let parents = &p.profile.compound.parents;
+        let these: Vec<_> = states.by_ref().take(parents.len()).collect();
+        // The main component (most atoms) stands for the compound's extractable share.
+        let main = (0..parents.len()).max_by_key(|&i| parents[i].atoms.len());
+        solutes.push(SoluteReport {
+            smiles: p.profile.smiles.clone(),
+            amount_mol: p.amount_mol,
+            sites: p.profile.sites.clone(),
+            fraction_neutral: main.map_or(1.0, |i| these[i].fraction_neutral),
+            fraction_aqueous: 1.0,
+            fraction_organic: 0.0,
+            log_d: None,
+            mean_charge: these.iter().map(|s| s.mean_charge).sum(),
+        });
+    }
+    solutes
+}
+
+/// Salts taken with their counter-ions, and solutes with nothing to titrate.
+fn solute_notes(prepared: &[Prepared]) -> Vec<String> {
+    let mut notes = Vec::new();
+    for p in prepared {
+        if let Some(b) = &p.profile.compound.balanced_with {
+            notes.push(format!(
+                "{} carries a charge; taken as its salt with {b}.",
+                p.profile.smiles
+            ));
+        }
+        if p.profile.sites.is_empty() {
+            notes.push(format!(
+                "{} has no site that titrates in water; it stays neutral.",
+                p.profile.smiles
+            ));
+        }
+    }
+    notes
 }
 
 /// What the CO2 did, and how far a carbonate reagent can go.

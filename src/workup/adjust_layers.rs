@@ -95,8 +95,8 @@ pub fn adjust_with_organic(
     let mut out = Vec::new();
     for &target in &request.targets {
         let (reagent, offer, why) = if auto {
-            let c = layers::choose_auto(&first, target, conditions, catalogue)?;
-            (c.reagent, c.stock, Some(c.reason))
+            let (c, _) = layers::choose_auto(&first, target, conditions, catalogue)?;
+            (c.reagent, c.stock, Some(format!("auto: {}", c.reason)))
         } else {
             let reagent = Reagent::find(catalogue, &request.reagent)?;
             let offer = choose_stock(reagent, request.stock.as_deref())?;

@@ -273,15 +273,19 @@ pub fn dose_with_alternatives(
 }
 
 /// The mildest reagent and stock of `catalogue` that brings the aqueous layer to
-/// `target_ph` with the organic layer present.
+/// `target_ph` with a practical amount ([`equilibrium::Practical`], counted on the contacted
+/// layer: every solute's total in both layers), with the organic layer present; with the dose
+/// it takes.
 pub fn choose_auto(
     layers: &TwoLayers,
     target_ph: f64,
     conditions: &Conditions,
     catalogue: &[Reagent],
-) -> Result<AutoChoice> {
+) -> Result<(AutoChoice, TwoLayerDose)> {
     layers.validate()?;
-    equilibrium::choose_auto(&layers.contacted(), target_ph, conditions, catalogue)
+    let choice = equilibrium::choose_auto(&layers.contacted(), target_ph, conditions, catalogue)?;
+    let dose = finish(layers, &choice.reagent, &choice.stock, choice.dose.clone());
+    Ok((choice, dose))
 }
 
 /// pH with no reagent and the limit `reagent` from `stock` tends to, both layers present.

@@ -12,9 +12,10 @@
 //! pH separates.
 //!
 //! Each step is then simulated exactly ([`super::washes::wash`], partition inside the charge
-//! balance): the mildest reagent that reaches the pH with the layers present and a sensible
-//! volume of stock ([`super::plan_recover::bench_dose`]), its amount for the first portion (what the solutes consume
-//! included), and N portions of that same solution. Purity (by mass, among the mixture's
+//! balance): the mildest reagent that reaches the pH with the layers present and a practical
+//! amount ([`super::layers::choose_auto`], the same choice as `adjust --reagent auto`), its
+//! amount for the first portion (what the solutes consume included), and N portions of that
+//! same solution. Purity (by mass, among the mixture's
 //! compounds) and recovery of every fraction come from that simulation, not from the screen.
 //! Getting a compound back ([`super::plan_recover`]): bring its aqueous fraction to the pH
 //! where it is most extractable, and extract it with fresh solvent.
@@ -24,10 +25,10 @@ use serde::Serialize;
 use super::adjust::SoluteInput;
 use super::layers::{self, OrganicLayer};
 use super::mixture::Mixture;
-use super::plan_recover::{Recovery, bench_dose, recover};
-use super::washes::wash;
+use super::plan_recover::{Recovery, recover};
+use super::washes::{Portions, wash};
 use crate::acidity::Handbook;
-use crate::equilibrium::{self, AqueousLayer, Conditions, Reagent};
+use crate::equilibrium::{self, AqueousLayer, Conditions, Reagent, StockOffer};
 use crate::error::{Error, Result};
 
 /// Share that counts as moved into the water (screen), and the share a staying compound may
@@ -243,19 +244,41 @@ pub(super) fn max_log_d(mixture: &Mixture, member: usize) -> f64 {
         .fold(f64::NEG_INFINITY, f64::max)
 }
 
+/// What every step of one plan shares: the mixture, the layers' sizes, the conditions and the
+/// reagents to choose from.
+struct Bench<'a> {
+    mixture: &'a Mixture,
+    organic: &'a OrganicLayer,
+    /// Each aqueous portion, L.
+    va: f64,
+    conditions: &'a Conditions,
+    catalogue: &'a [Reagent],
+}
+
+/// A simulated step, as its recovery needs it: the portions, the reagent and stock, mol per
+/// portion, and whether the salts' counter-ions went with it (the first step).
+struct StepLayers {
+    portions: Portions,
+    reagent: Reagent,
+    stock: StockOffer,
+    mol: f64,
+    with_ions: bool,
+}
+
+/// The wash steps and what they leave behind.
+struct Washes {
+    steps: Vec<Step>,
+    /// One aqueous fraction per step, then the organic layer.
+    fractions: Vec<Fraction>,
+    layers: Vec<StepLayers>,
+    /// Members still together in the organic layer at the end.
+    left: Vec<usize>,
+}
+
 /// Makes the plan.
 pub fn plan(request: &PlanRequest, handbook: &Handbook, catalogue: &[Reagent]) -> Result<Plan> {
     let organic = OrganicLayer::new(&request.solvent, request.organic_l)?;
-    let vo = organic.volume_l;
-    let va = match request.water_l {
-        Some(v) if v.is_finite() && v > 0.0 => v,
-        Some(v) => {
-            return Err(Error::Input(format!(
-                "--water must be a positive volume, not {v} L"
-            )));
-        }
-        None => vo / 2.0,
-    };
+    let va = portion_volume(request, organic.volume_l)?;
     let mixture = Mixture::new(&request.solutes, handbook, &organic.solvent, va)?;
     if let Some(keep) = &request.keep
         && !mixture.members.iter().any(|m| &m.smiles == keep)
@@ -264,7 +287,13 @@ pub fn plan(request: &PlanRequest, handbook: &Handbook, catalogue: &[Reagent]) -
             "--keep {keep} is not one of the --solute SMILES"
         )));
     }
-    let conditions = &request.conditions;
+    let bench = Bench {
+        mixture: &mixture,
+        organic: &organic,
+        va,
+        conditions: &request.conditions,
+        catalogue,
+    };
     let mut notes = mixture.partition_notes();
     if request.water_l.is_none() {
         notes.push(format!(
@@ -273,138 +302,241 @@ pub fn plan(request: &PlanRequest, handbook: &Handbook, catalogue: &[Reagent]) -
             va * 1e3
         ));
     }
-    let count = mixture.members.len();
+    let (stuck, stuck_notes) = never_leave_water(&mixture, &organic);
+    notes.extend(stuck_notes);
+    let washes = wash_steps(&bench, &stuck)?;
+    if washes.left.len() > 1 {
+        notes.extend(inseparable_notes(&bench, &washes.left));
+    }
+    let recoveries = recoveries(&bench, &washes, &stuck)?;
+    notes.extend(keep_notes(request, &mixture, &washes.fractions));
+    let cautions = plan_cautions(&washes.steps, &recoveries, &organic)?;
+    Ok(Plan {
+        solvent: organic.solvent.name.clone(),
+        organic_volume_ml: organic.volume_l * 1e3,
+        organic_layer: organic.position(),
+        water_per_portion_ml: va * 1e3,
+        steps: washes.steps,
+        fractions: washes.fractions,
+        recoveries,
+        notes,
+        cautions,
+    })
+}
+
+/// Each aqueous portion, L: `--water`, else half the organic volume.
+fn portion_volume(request: &PlanRequest, organic_l: f64) -> Result<f64> {
+    match request.water_l {
+        Some(v) if v.is_finite() && v > 0.0 => Ok(v),
+        Some(v) => Err(Error::Input(format!(
+            "--water must be a positive volume, not {v} L"
+        ))),
+        None => Ok(organic_l / 2.0),
+    }
+}
+
+/// Members whose logD stays below 0 at every pH of the screen, with a note for each: they go
+/// with the first aqueous wash.
+fn never_leave_water(mixture: &Mixture, organic: &OrganicLayer) -> (Vec<usize>, Vec<String>) {
     let mut stuck = Vec::new();
-    for m in 0..count {
-        let best = max_log_d(&mixture, m);
-        if best < 0.0 {
-            stuck.push(m);
-            let why = if mixture.members[m].profile.sites.len() > 1 {
-                "a zwitterion or polyion at every pH"
+    let mut notes = Vec::new();
+    for m in 0..mixture.members.len() {
+        let best = max_log_d(mixture, m);
+        if best >= 0.0 {
+            continue;
+        }
+        stuck.push(m);
+        let why = if mixture.members[m].profile.sites.len() > 1 {
+            "a zwitterion or polyion at every pH"
+        } else {
+            "too polar"
+        };
+        notes.push(format!(
+            "{} will not leave water at any pH (highest logD {} in {}: {why}); it goes \
+             with the first aqueous wash and is not extracted back.",
+            mixture.members[m].smiles,
+            if best.is_finite() {
+                format!("{best:.1}")
             } else {
-                "too polar"
-            };
-            notes.push(format!(
-                "{} will not leave water at any pH (highest logD {} in {}: {why}); it goes \
-                 with the first aqueous wash and is not extracted back.",
-                mixture.members[m].smiles,
-                if best.is_finite() {
-                    format!("{best:.1}")
-                } else {
-                    "none".into()
-                },
-                organic.solvent.name
-            ));
-        }
+                "none".into()
+            },
+            organic.solvent.name
+        ));
     }
-    let mut left: Vec<usize> = (0..count).filter(|m| !stuck.contains(m)).collect();
+    (stuck, notes)
+}
+
+/// Chooses and simulates steps until no clean pH is left; the organic layer is the last
+/// fraction.
+fn wash_steps(bench: &Bench, stuck: &[usize]) -> Result<Washes> {
+    let mixture = bench.mixture;
+    let mut left: Vec<usize> = (0..mixture.members.len())
+        .filter(|m| !stuck.contains(m))
+        .collect();
     let mut moles = mixture.initial_moles();
-    let mains = mixture.main_solutes();
-    let water = AqueousLayer::water(va);
-    let mut steps = Vec::new();
-    let mut fractions = Vec::new();
-    let mut step_layers = Vec::new();
-    let mut first_step = true;
-    while let Some(candidate) = choose_step(&mixture, &left, va, vo) {
-        let first = mixture.layers(&water, vo, &moles, first_step)?;
-        let choice = bench_dose(&first, candidate.ph, va / 2.0, conditions, catalogue)?;
-        let dosed = &choice.dose;
-        let mol = dosed.dose.reagent_mol;
-        let with = layers::with_reagent(&first, &choice.reagent, &choice.stock.stock, mol);
-        let fresh =
-            equilibrium::dose::with_reagent(&water, &choice.reagent, &choice.stock.stock, mol);
-        let portions = wash(&with, &fresh, candidate.portions, conditions)?;
-        let total_of = |m: usize| mixture.members[m].amount_mol;
-        let mut moves: Vec<usize> = candidate.moves.clone();
-        if first_step {
-            moves.extend(stuck.iter().copied());
-        }
-        let why = left
-            .iter()
-            .chain(if first_step { stuck.iter() } else { [].iter() })
-            .map(|&m| {
-                let share = &dosed.state.shares[mains[m]];
-                Reason {
-                    smiles: mixture.members[m].smiles.clone(),
-                    ionized: 1.0 - share.fraction_neutral,
-                    log_d: share.log_d,
-                    to_water: portions.aqueous_mol[mains[m]] / total_of(m).max(1e-300),
-                }
-            })
-            .collect();
-        let contents: Vec<f64> = mains.iter().map(|&i| portions.aqueous_mol[i]).collect();
-        fractions.push(fraction(
-            &mixture,
-            format!("aqueous (step {})", steps.len() + 1),
-            &moves,
-            contents,
-        ));
-        steps.push(Step {
-            step: steps.len() + 1,
-            ph: candidate.ph,
-            reagent: choice.reagent.name.clone(),
-            stock: choice.stock.label(),
-            reagent_mol: mol,
-            stock_volume_ml: dosed.dose.stock_volume_l.map(|v| v * 1e3),
-            reagent_mass_g: dosed.dose.solid_mass_g,
-            water_ml: va * 1e3,
-            portions: candidate.portions,
-            portion_ph: portions.states.iter().map(|s| s.ph).collect(),
-            moves: moves
-                .iter()
-                .map(|&m| mixture.members[m].smiles.clone())
-                .collect(),
-            why,
-            co2_released_mol: portions.co2_released_mol,
-            reagent_reason: choice.reason,
-        });
-        step_layers.push((
-            portions.clone(),
-            choice.reagent.clone(),
-            choice.stock.clone(),
-            mol,
-            first_step,
-        ));
-        moles = portions.organic_mol.clone();
+    let mut washes = Washes {
+        steps: Vec::new(),
+        fractions: Vec::new(),
+        layers: Vec::new(),
+        left: Vec::new(),
+    };
+    while let Some(candidate) = choose_step(mixture, &left, bench.va, bench.organic.volume_l) {
+        // The members that never leave water go with the first step.
+        let with: &[usize] = if washes.steps.is_empty() { stuck } else { &[] };
+        let (step, fraction, layers) = simulate_step(
+            bench,
+            &candidate,
+            &moles,
+            &left,
+            with,
+            washes.steps.len() + 1,
+        )?;
+        moles = layers.portions.organic_mol.clone();
         left.retain(|m| !candidate.moves.contains(m));
-        first_step = false;
+        washes.steps.push(step);
+        washes.fractions.push(fraction);
+        washes.layers.push(layers);
     }
-    if left.len() > 1 {
-        for (a, b) in inseparable(&mixture, &left, va, vo) {
-            notes.push(format!(
+    let mains = mixture.main_solutes();
+    let contents: Vec<f64> = mains.iter().map(|&i| moles[i]).collect();
+    washes
+        .fractions
+        .push(fraction(mixture, "organic".into(), &left, contents));
+    washes.left = left;
+    Ok(washes)
+}
+
+/// Step `number` at the candidate's pH: the reagent and its dose for the first portion
+/// (`moles` in the organic layer), the portions washed exactly, and what each compound did.
+/// `stuck` members (first step only) go along with the movers.
+fn simulate_step(
+    bench: &Bench,
+    candidate: &Candidate,
+    moles: &[f64],
+    left: &[usize],
+    stuck: &[usize],
+    number: usize,
+) -> Result<(Step, Fraction, StepLayers)> {
+    let (mixture, conditions, va) = (bench.mixture, bench.conditions, bench.va);
+    let first_step = number == 1;
+    let water = AqueousLayer::water(va);
+    let first = mixture.layers(&water, bench.organic.volume_l, moles, first_step)?;
+    let (choice, dosed) = layers::choose_auto(&first, candidate.ph, conditions, bench.catalogue)?;
+    let mol = dosed.dose.reagent_mol;
+    let with = layers::with_reagent(&first, &choice.reagent, &choice.stock.stock, mol);
+    let fresh = equilibrium::dose::with_reagent(&water, &choice.reagent, &choice.stock.stock, mol);
+    let portions = wash(&with, &fresh, candidate.portions, conditions)?;
+    let mains = mixture.main_solutes();
+    let moves: Vec<usize> = candidate.moves.iter().chain(stuck).copied().collect();
+    let why = left
+        .iter()
+        .chain(stuck)
+        .map(|&m| {
+            let share = &dosed.state.shares[mains[m]];
+            Reason {
+                smiles: mixture.members[m].smiles.clone(),
+                ionized: 1.0 - share.fraction_neutral,
+                log_d: share.log_d,
+                to_water: portions.aqueous_mol[mains[m]]
+                    / mixture.members[m].amount_mol.max(1e-300),
+            }
+        })
+        .collect();
+    let contents: Vec<f64> = mains.iter().map(|&i| portions.aqueous_mol[i]).collect();
+    let fraction = fraction(
+        mixture,
+        format!("aqueous (step {number})"),
+        &moves,
+        contents,
+    );
+    let step = Step {
+        step: number,
+        ph: candidate.ph,
+        reagent: choice.reagent.name.clone(),
+        stock: choice.stock.label(),
+        reagent_mol: mol,
+        stock_volume_ml: dosed.dose.stock_volume_l.map(|v| v * 1e3),
+        reagent_mass_g: dosed.dose.solid_mass_g,
+        water_ml: va * 1e3,
+        portions: candidate.portions,
+        portion_ph: portions.states.iter().map(|s| s.ph).collect(),
+        moves: moves
+            .iter()
+            .map(|&m| mixture.members[m].smiles.clone())
+            .collect(),
+        why,
+        co2_released_mol: portions.co2_released_mol,
+        reagent_reason: choice.reason,
+    };
+    let layers = StepLayers {
+        portions,
+        reagent: choice.reagent,
+        stock: choice.stock,
+        mol,
+        with_ions: first_step,
+    };
+    Ok((step, fraction, layers))
+}
+
+/// One note per pair of the members left together that no pH separates.
+fn inseparable_notes(bench: &Bench, left: &[usize]) -> Vec<String> {
+    let mixture = bench.mixture;
+    inseparable(mixture, left, bench.va, bench.organic.volume_l)
+        .into_iter()
+        .map(|(a, b)| {
+            format!(
                 "No pH separates {} and {}: their logD curves run too close together (acid or \
                  base strengths too alike for this solvent); they stay together in the {} layer \
                  — use chromatography or crystallization for that pair.",
-                mixture.members[a].smiles, mixture.members[b].smiles, organic.solvent.name
-            ));
-        }
-    }
-    let contents: Vec<f64> = mains.iter().map(|&i| moles[i]).collect();
-    fractions.push(fraction(&mixture, "organic".into(), &left, contents));
-    let recoveries = steps
+                mixture.members[a].smiles, mixture.members[b].smiles, bench.organic.solvent.name
+            )
+        })
+        .collect()
+}
+
+/// Getting the compounds of each aqueous fraction back (none for the members that never
+/// leave water).
+fn recoveries(bench: &Bench, washes: &Washes, stuck: &[usize]) -> Result<Vec<Recovery>> {
+    let mixture = bench.mixture;
+    washes
+        .steps
         .iter()
-        .zip(&step_layers)
-        .zip(&fractions)
-        .filter_map(|((step, (portions, reagent, stock, mol, with_ions)), fr)| {
-            let intended: Vec<usize> = (0..count)
+        .zip(&washes.layers)
+        .zip(&washes.fractions)
+        .filter_map(|((step, layers), fr)| {
+            let intended: Vec<usize> = (0..mixture.members.len())
                 .filter(|&m| step.moves.contains(&mixture.members[m].smiles) && !stuck.contains(&m))
                 .collect();
             if intended.is_empty() {
                 return None;
             }
+            let used = (
+                &layers.reagent,
+                &layers.stock,
+                layers.mol,
+                step.portions,
+                layers.with_ions,
+            );
             Some(recover(
-                &mixture,
-                &organic,
+                mixture,
+                bench.organic,
                 fr,
                 &intended,
-                portions,
-                (reagent, stock, *mol, step.portions, *with_ions),
-                conditions,
-                catalogue,
+                &layers.portions,
+                used,
+                bench.conditions,
+                bench.catalogue,
             ))
         })
-        .collect::<Result<Vec<_>>>()?;
-    notes.extend(keep_notes(request, &mixture, &fractions));
+        .collect()
+}
+
+/// The cautions of every reagent the plan handles, once each, the general deferral last.
+fn plan_cautions(
+    steps: &[Step],
+    recoveries: &[Recovery],
+    organic: &OrganicLayer,
+) -> Result<Vec<String>> {
     let gas = steps.iter().any(|s| s.co2_released_mol > 0.0)
         || recoveries.iter().any(|r| r.co2_released_mol > 0.0);
     let situation = super::cautions::Situation {
@@ -423,22 +555,11 @@ pub fn plan(request: &PlanRequest, handbook: &Handbook, catalogue: &[Reagent]) -
             }
         }
     }
-    // The general deferral goes last.
     if let Some(pos) = cautions.iter().position(|c| c.contains("SDS")) {
         let last = cautions.remove(pos);
         cautions.push(last);
     }
-    Ok(Plan {
-        solvent: organic.solvent.name.clone(),
-        organic_volume_ml: vo * 1e3,
-        organic_layer: organic.position(),
-        water_per_portion_ml: va * 1e3,
-        steps,
-        fractions,
-        recoveries,
-        notes,
-        cautions,
-    })
+    Ok(cautions)
 }
 
 /// Purity by mass and recovery of the compounds `intended` in a fraction holding `contents`.

@@ -11,7 +11,7 @@ use super::layers::{self, OrganicLayer};
 use super::mixture::Mixture;
 use super::plan::{Fraction, max_log_d};
 use super::washes::{Portions, extract};
-use crate::equilibrium::{self, AqueousLayer, Conditions, Reagent, Stock, StockOffer};
+use crate::equilibrium::{self, AqueousLayer, AutoChoice, Conditions, Reagent, Stock, StockOffer};
 use crate::error::Result;
 use crate::units::fmt_ph;
 
@@ -78,22 +78,11 @@ fn best_ph(mixture: &Mixture, members: &[usize], from: f64) -> f64 {
         .unwrap_or(from)
 }
 
-/// Plans the recovery of `intended` (member indices) from the aqueous fraction `fraction`
-/// that `portions` made with `step`.
-#[allow(clippy::too_many_arguments)]
-pub fn recover(
-    mixture: &Mixture,
-    organic: &OrganicLayer,
-    fraction: &Fraction,
-    intended: &[usize],
-    portions: &Portions,
-    step: StepReagent,
-    conditions: &Conditions,
-    catalogue: &[Reagent],
-) -> Result<Recovery> {
-    let (reagent, _stock, mol, count, with_ions) = step;
+/// The fraction's combined portions as one aqueous layer: the reagent of every portion, the
+/// carbon still dissolved after venting (the solutes are added by the caller).
+fn combined_portions(portions: &Portions, step: StepReagent) -> AqueousLayer {
+    let (reagent, _stock, mol, count, _) = step;
     let volume: f64 = portions.states.iter().map(|s| s.aqueous_volume_l).sum();
-    // The combined portions: the reagent of every portion, the carbon still dissolved.
     let mut base = equilibrium::dose::with_reagent(
         &AqueousLayer::water(volume),
         reagent,
@@ -108,12 +97,60 @@ pub fn recover(
             c.co2_mol + c.bicarbonate_mol + c.carbonate_mol
         })
         .sum();
+    base
+}
+
+/// One sentence: from which pH to which, with what, then the extraction; a warning when the
+/// least extractable compound's best logD (`worst`) stays low.
+fn recovery_note(
+    (here, target): (f64, f64),
+    choice: &AutoChoice,
+    organic: &OrganicLayer,
+    names: &[String],
+    worst: f64,
+) -> String {
+    let direction = if target < here { "acidify" } else { "basify" };
+    let mut note = format!(
+        "{direction} the combined step portions from pH {} to {} with {} ({}), then extract \
+         with {} × {:.0} mL {}",
+        fmt_ph(here),
+        fmt_ph(target),
+        choice.reagent.name,
+        choice.stock.label(),
+        BACK_PORTIONS,
+        organic.volume_l / 2.0 * 1e3,
+        organic.solvent.name
+    );
+    if worst < POOR_LOG_D {
+        note += &format!(
+            "; {} is poorly extractable (highest logD {worst:.1}): saturate the water with NaCl \
+             or evaporate it instead",
+            names.join(", ")
+        );
+    }
+    note
+}
+
+/// Plans the recovery of `intended` (member indices) from the aqueous fraction `fraction`
+/// that `portions` made with `step`.
+#[allow(clippy::too_many_arguments)]
+pub fn recover(
+    mixture: &Mixture,
+    organic: &OrganicLayer,
+    fraction: &Fraction,
+    intended: &[usize],
+    portions: &Portions,
+    step: StepReagent,
+    conditions: &Conditions,
+    catalogue: &[Reagent],
+) -> Result<Recovery> {
+    let with_ions = step.4;
+    let base = combined_portions(portions, step);
     let solvent_l = organic.volume_l / 2.0;
     let layers = mixture.layers(&base, solvent_l, &portions.aqueous_mol, with_ions)?;
     let here = layers::equilibrate(&layers, conditions)?.ph;
     let target = best_ph(mixture, intended, here);
-    let choice = bench_dose(&layers, target, volume / 2.0, conditions, catalogue)?;
-    let dosed = &choice.dose;
+    let (choice, dosed) = layers::choose_auto(&layers, target, conditions, catalogue)?;
     let after = layers::with_reagent(
         &layers,
         &choice.reagent,
@@ -140,25 +177,7 @@ pub fn recover(
         .iter()
         .map(|&m| max_log_d(mixture, m))
         .fold(f64::INFINITY, f64::min);
-    let direction = if target < here { "acidify" } else { "basify" };
-    let mut note = format!(
-        "{direction} the combined step portions from pH {} to {} with {} ({}), then extract \
-         with {} × {:.0} mL {}",
-        fmt_ph(here),
-        fmt_ph(target),
-        choice.reagent.name,
-        choice.stock.label(),
-        BACK_PORTIONS,
-        solvent_l * 1e3,
-        organic.solvent.name
-    );
-    if worst < POOR_LOG_D {
-        note += &format!(
-            "; {} is poorly extractable (highest logD {worst:.1}): saturate the water with NaCl \
-             or evaporate it instead",
-            names.join(", ")
-        );
-    }
+    let note = recovery_note((here, target), &choice, organic, &names, worst);
     Ok(Recovery {
         fraction: fraction.layer.clone(),
         smiles: names,
@@ -175,98 +194,4 @@ pub fn recover(
         co2_released_mol: extraction.co2_released_mol,
         note,
     })
-}
-
-/// A reagent, stock and dose a plan step uses.
-pub struct BenchDose {
-    pub reagent: Reagent,
-    pub stock: StockOffer,
-    pub dose: layers::TwoLayerDose,
-    pub reason: String,
-}
-
-/// The mildest reagent (table order of mildness) with a stock that reaches `target` using at
-/// most `max_volume_l` of solution and a sensible amount (a solid always qualifies: it is capped by its solubility);
-/// if none stays under that volume, the one that needs the least. A weak acid such as acetic
-/// acid reaches pH 2.7 only with litres of stock, which no one would add to a funnel.
-pub fn bench_dose(
-    two: &layers::TwoLayers,
-    target: f64,
-    max_volume_l: f64,
-    conditions: &Conditions,
-    catalogue: &[Reagent],
-) -> Result<BenchDose> {
-    let start = layers::equilibrate(two, conditions)?.ph;
-    let role = if target >= start {
-        crate::equilibrium::Role::Base
-    } else {
-        crate::equilibrium::Role::Acid
-    };
-    let mut candidates: Vec<&Reagent> = catalogue.iter().filter(|r| r.role == role).collect();
-    candidates.sort_by_key(|r| r.mildness);
-    let mut fallback: Option<BenchDose> = None;
-    let mut too_much = Vec::new();
-    for reagent in candidates {
-        for stock in equilibrium::dose::stocks_in_order(reagent) {
-            let Ok(d) = layers::dose(two, reagent, stock, target, conditions) else {
-                continue;
-            };
-            let volume = d.dose.stock_volume_l.unwrap_or(0.0);
-            let found = BenchDose {
-                reagent: reagent.clone(),
-                stock: stock.clone(),
-                reason: String::new(),
-                dose: d,
-            };
-            // Sensible amount: what the solutes can take (a few equivalents) plus what the
-            // water itself needs, with 0.2 mol/L of slack: a weak acid or base far from its
-            // own pKa would need tens of equivalents.
-            let solutes: f64 = two.aqueous.solutes.iter().map(|p| p.total_mol).sum();
-            let sensible = 5.0 * solutes + 0.2 * two.aqueous.volume_l;
-            if volume <= max_volume_l && found.dose.dose.reagent_mol <= sensible {
-                let skipped = if too_much.is_empty() {
-                    String::new()
-                } else {
-                    format!("; milder ones need too much stock: {}", too_much.join(", "))
-                };
-                return Ok(BenchDose {
-                    reason: format!(
-                        "{} ({}) is the mildest listed reagent that takes the layer from pH {} \
-                         to {} with at most {:.0} mL of stock{skipped}",
-                        reagent.name,
-                        stock.label(),
-                        fmt_ph(start),
-                        fmt_ph(target),
-                        max_volume_l * 1e3
-                    ),
-                    ..found
-                });
-            }
-            if !too_much.contains(&reagent.name) {
-                too_much.push(reagent.name.clone());
-            }
-            let better = fallback
-                .as_ref()
-                .is_none_or(|f| volume < f.dose.dose.stock_volume_l.unwrap_or(0.0));
-            if better {
-                fallback = Some(found);
-            }
-        }
-    }
-    match fallback {
-        Some(f) => Ok(BenchDose {
-            reason: format!(
-                "{} ({}) needs the least stock of the reagents that reach pH {}",
-                f.reagent.name,
-                f.stock.label(),
-                fmt_ph(target)
-            ),
-            ..f
-        }),
-        None => Err(crate::Error::Unreachable(format!(
-            "no listed reagent takes the layer from pH {} to {}",
-            fmt_ph(start),
-            fmt_ph(target)
-        ))),
-    }
 }

@@ -2,7 +2,7 @@
 //! in lab units, where each compound stands at the pH reached, the ionization curves with the
 //! targets marked, and the notes and cautions of the run.
 
-use super::figure::ionization_figure;
+use super::figure::ionization_figure_at;
 use super::{Block, Cell, Report, Section, Table, merge_cautions};
 use crate::report::ionization::{self, Compound};
 use crate::report::sig;
@@ -343,12 +343,14 @@ fn compound_table(results: &[Adjustment]) -> Table {
 fn figure(results: &[Adjustment], solutes: &[SoluteCurves]) -> Block {
     let targets: Vec<f64> = results.iter().map(|a| a.target_ph).collect();
     let compounds: Vec<Compound> = solutes.iter().map(|s| s.compound.clone()).collect();
-    ionization_figure(
+    let temperature_c = results.first().map_or(25.0, |a| a.temperature_c);
+    ionization_figure_at(
         &compounds,
         &targets,
         "Fraction ionized (and logD where the logP is known) of each solute against pH, from \
          its pKa values alone; vertical lines mark the target pH. Other solutes, salt and \
          temperature shift the real layer slightly; the tables above include them.",
+        temperature_c,
     )
 }
 

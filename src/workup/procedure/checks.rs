@@ -485,56 +485,64 @@ pub fn departures(run: &Run) -> Vec<Problem> {
         let Some(step) = run.procedure.steps.get(d.step - 1) else {
             continue;
         };
-        let fate = match &d.set_aside {
-            Some(n) => format!("set aside as `{n}` and never used again"),
-            None => "thrown away".into(),
+        let loss = Loss {
+            step: step.number,
+            pct,
+            name,
+            fate: match &d.set_aside {
+                Some(n) => format!("set aside as `{n}` and never used again"),
+                None => "thrown away".into(),
+            },
+            window: product_window(run).unwrap_or_else(|| "a pH where it is neutral".into()),
         };
-        let window = product_window(run).unwrap_or_else(|| "a pH where it is neutral".into());
-        let major = pct >= 50.0;
-        let kind = if major {
+        let kind = if loss.major() {
             "product_discarded"
         } else {
             "product_loss"
         };
-        let (message, fix) = match &d.gone {
+        let (message, fix) = loss.wording(&d.gone);
+        out.push(problem(step, kind, message, fix));
+    }
+    out
+}
+
+/// The product leaving with a layer: what a problem about it says.
+struct Loss<'a> {
+    /// Step number.
+    step: usize,
+    /// Share of the product in the layer, %.
+    pct: f64,
+    name: &'a str,
+    /// `thrown away` or `set aside as ... and never used again`.
+    fate: String,
+    /// Where the product is neutral (`pH 9.5 or above`).
+    window: String,
+}
+
+impl Loss<'_> {
+    /// Half the product or more: the wrong layer was kept, rather than some lost.
+    fn major(&self) -> bool {
+        self.pct >= 50.0
+    }
+
+    /// The message and the fix for a layer gone this way.
+    fn wording(&self, gone: &Gone) -> (String, String) {
+        let Loss {
+            step,
+            pct,
+            name,
+            fate,
+            window,
+        } = self;
+        match gone {
             Gone::Separated {
                 kept_organic,
                 organic_on_top,
-            } => {
-                let (kept, other) = if *kept_organic {
-                    ("organic", "aqueous")
-                } else {
-                    ("aqueous", "organic")
-                };
-                let pos = |organic: bool| {
-                    if organic == *organic_on_top {
-                        "top"
-                    } else {
-                        "bottom"
-                    }
-                };
-                let message = format!(
-                    "Step {} keeps the {kept} layer ({}), but {pct:.0}% of the product ({name}) is in \
-                     the {other} layer ({}), which is {fate}.",
-                    step.number,
-                    pos(*kept_organic),
-                    pos(!*kept_organic)
-                );
-                let fix = if major {
-                    format!("Keep the {other} layer ({}) instead.", pos(!*kept_organic))
-                } else {
-                    format!(
-                        "Bring the aqueous layer to {window} before separating, or extract the \
-                         {other} layer again and combine."
-                    )
-                };
-                (message, fix)
-            }
+            } => self.separated(*kept_organic, *organic_on_top),
             Gone::Washes { ph } => (
                 format!(
-                    "The washes of step {} (pH {}) carry away {pct:.0}% of the product ({name}); \
-                     they are {fate}.",
-                    step.number,
+                    "The washes of step {step} (pH {}) carry away {pct:.0}% of the product \
+                     ({name}); they are {fate}.",
                     ph.map_or("n/a".into(), fmt_ph)
                 ),
                 format!(
@@ -546,9 +554,8 @@ pub fn departures(run: &Run) -> Vec<Problem> {
                 ph,
             } => (
                 format!(
-                    "After the extraction of step {}, {pct:.0}% of the product ({name}) is still \
-                     in the aqueous layer (pH {}), which is {fate}.",
-                    step.number,
+                    "After the extraction of step {step}, {pct:.0}% of the product ({name}) is \
+                     still in the aqueous layer (pH {}), which is {fate}.",
                     ph.map_or("n/a".into(), fmt_ph)
                 ),
                 format!(
@@ -560,22 +567,54 @@ pub fn departures(run: &Run) -> Vec<Problem> {
                 ..
             } => (
                 format!(
-                    "The organic extracts of step {} hold {pct:.0}% of the product ({name}) and are {fate}.",
-                    step.number
+                    "The organic extracts of step {step} hold {pct:.0}% of the product ({name}) and are {fate}."
                 ),
                 "Keep the organic extracts (keep = \"organic\").".into(),
             ),
             Gone::Combined => (
-                format!(
-                    "{pct:.0}% of the product ({name}) is in the layer {fate} at step {}.",
-                    step.number
-                ),
+                format!("{pct:.0}% of the product ({name}) is in the layer {fate} at step {step}."),
                 "Use that layer again (combine) or do not set it aside.".into(),
             ),
-        };
-        out.push(problem(step, kind, message, fix));
+        }
     }
-    out
+
+    /// A separation that kept the layer without the product.
+    fn separated(&self, kept_organic: bool, organic_on_top: bool) -> (String, String) {
+        let Loss {
+            step,
+            pct,
+            name,
+            fate,
+            window,
+        } = self;
+        let (kept, other) = if kept_organic {
+            ("organic", "aqueous")
+        } else {
+            ("aqueous", "organic")
+        };
+        let pos = |organic: bool| {
+            if organic == organic_on_top {
+                "top"
+            } else {
+                "bottom"
+            }
+        };
+        let message = format!(
+            "Step {step} keeps the {kept} layer ({}), but {pct:.0}% of the product ({name}) is in \
+             the {other} layer ({}), which is {fate}.",
+            pos(kept_organic),
+            pos(!kept_organic)
+        );
+        let fix = if self.major() {
+            format!("Keep the {other} layer ({}) instead.", pos(!kept_organic))
+        } else {
+            format!(
+                "Bring the aqueous layer to {window} before separating, or extract the {other} \
+                 layer again and combine."
+            )
+        };
+        (message, fix)
+    }
 }
 
 /// Ionizable compounds other than the product still in the final layer that a wash at some
