@@ -1,12 +1,16 @@
 //! Scores phdose's pKa values on a CSV of measured constants (columns `smiles`, `kind`, `pka`;
-//! others ignored). For kind `acid` the molecule's lowest acid-site pKa is compared, for kind
-//! `base` its highest base-site pKa. Prints MAE, RMSE, coverage (a site of the right kind was
-//! found), the share of measured values inside the reported range, and a per-group breakdown.
+//! others ignored). For kind `acid` the molecule's lowest acid constant is compared, for kind
+//! `base` its highest base constant, both as a handbook lists them (`Profile::readings`: the
+//! macroscopic constant at which the least-charged form, neutral or zwitterion, loses or takes
+//! a proton). Prints MAE, RMSE, coverage (a constant of the right kind was found), the share
+//! of measured values inside the reported range, the median width of that range, and a
+//! per-group breakdown.
 //!
-//! cargo run --release --example score_pka -- FILE.csv [--estimate-only] [--worst N]
+//! cargo run --release --example score_pka -- FILE.csv [--estimate-only] [--worst N] [--missing]
 
 use std::collections::BTreeMap;
 
+use phdose::acidity::reading::Reading;
 use phdose::acidity::{Handbook, Kind, Profile};
 use phdose::store::Store;
 
@@ -17,6 +21,7 @@ struct Tally {
     abs: f64,
     sq: f64,
     inside: usize,
+    widths: Vec<f64>,
 }
 
 impl Tally {
@@ -29,17 +34,28 @@ impl Tally {
             if low <= truth && truth <= high {
                 self.inside += 1;
             }
+            self.widths.push(high - low);
+        }
+    }
+    fn median_width(&self) -> f64 {
+        let mut w = self.widths.clone();
+        w.sort_by(f64::total_cmp);
+        match w.len() {
+            0 => 0.0,
+            n if n % 2 == 1 => w[n / 2],
+            n => 0.5 * (w[n / 2 - 1] + w[n / 2]),
         }
     }
     fn line(&self, name: &str) -> String {
         let f = self.found.max(1) as f64;
         format!(
-            "{name:<48} {:>5} {:>6.1} {:>6.2} {:>6.2} {:>6.1}",
+            "{name:<48} {:>5} {:>6.1} {:>6.2} {:>6.2} {:>6.1} {:>6.2}",
             self.n,
             100.0 * self.found as f64 / self.n.max(1) as f64,
             self.abs / f,
             (self.sq / f).sqrt(),
-            100.0 * self.inside as f64 / f
+            100.0 * self.inside as f64 / f,
+            self.median_width()
         )
     }
 }
@@ -88,29 +104,36 @@ fn run() -> Result<(), Box<dyn std::error::Error>> {
         let Ok(truth) = record[c_pka].parse::<f64>() else {
             continue;
         };
-        let sites = Profile::new(smiles, &handbook)
-            .map(|p| p.sites)
+        let readings: Vec<Reading> = Profile::new(smiles, &handbook)
+            .map(|p| {
+                (0..p.compound.parents.len())
+                    .filter_map(|i| {
+                        let r = p.readings(i);
+                        if kind == Kind::Acid { r.acid } else { r.base }
+                    })
+                    .collect()
+            })
             .unwrap_or_default();
-        let pick = sites.iter().filter(|s| s.kind == kind).min_by(|a, b| {
-            let key = |s: &&phdose::acidity::Site| if kind == Kind::Acid { s.pka } else { -s.pka };
+        let pick = readings.iter().min_by(|a, b| {
+            let key = |r: &&Reading| if kind == Kind::Acid { r.pka } else { -r.pka };
             key(a).total_cmp(&key(b))
         });
-        let hit = pick.map(|s| (s.pka, s.pka_low, s.pka_high));
+        let hit = pick.map(|r| (r.pka, r.pka_low, r.pka_high));
         let group = pick.map_or_else(
             || format!("(no {} site)", kind.as_str()),
-            |s| s.group.clone(),
+            |r| r.group.clone(),
         );
         all.add(hit, truth);
         by_group.entry(group.clone()).or_default().add(hit, truth);
-        let err = pick.map_or(f64::INFINITY, |s| (s.pka - truth).abs());
+        let err = pick.map_or(f64::INFINITY, |r| (r.pka - truth).abs());
         misses.push((
             err,
             format!("{smiles} {} {truth} -> {:?} [{group}]", kind.as_str(), hit),
         ));
     }
     println!(
-        "{:<48} {:>5} {:>6} {:>6} {:>6} {:>6}",
-        "group", "n", "cov%", "MAE", "RMSE", "in%"
+        "{:<48} {:>5} {:>6} {:>6} {:>6} {:>6} {:>6}",
+        "group", "n", "cov%", "MAE", "RMSE", "in%", "width"
     );
     println!("{}", all.line("all"));
     for (name, t) in &by_group {

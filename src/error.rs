@@ -1,5 +1,6 @@
 //! Errors as values. Every fallible library call returns `phdose::Error`; `main` maps the
-//! variants to exit codes in one place (2 bad input, 3 unreachable target, 1 internal).
+//! variants to exit codes in one place (2 bad input, 3 unreachable target, 4 problems found by `check`,
+//! 1 internal).
 
 use thiserror::Error as ThisError;
 
@@ -48,6 +49,9 @@ pub enum Error {
     /// The target pH lies outside what the chosen reagent and stock can reach.
     #[error("{0}")]
     Unreachable(String),
+    /// `check` ran and found problems in the procedure; `report` is the full output to print.
+    #[error("{count} problem(s) found in the procedure")]
+    Problems { count: usize, report: String },
     /// The local store could not be opened, migrated or read.
     #[error("store: {0}")]
     Store(String),

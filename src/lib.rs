@@ -5,6 +5,7 @@
 //! the [`store`] -> [`equilibrium`] (charge balance, solve pH or reagent amount) -> [`report`].
 
 pub mod acidity;
+pub mod buffer;
 pub mod chem;
 pub mod cli;
 pub mod equilibrium;

@@ -1,5 +1,6 @@
 //! The `phdose` binary: parses the command line, runs the library, prints, and maps errors to
-//! exit codes in this one place (2 bad input, 3 target not reachable, 1 internal error).
+//! exit codes in this one place (2 bad input, 3 target not reachable, 4 problems found by
+//! `check`, 1 internal error).
 
 use std::io::Write;
 use std::process::ExitCode;
@@ -12,6 +13,15 @@ fn main() -> ExitCode {
     let cli = Cli::parse();
     match cli::run(&cli) {
         Ok(text) => print_out(&text),
+        Err(Error::Problems { count, report }) => {
+            // The report is the answer: it goes to standard output, the verdict to the exit code.
+            let printed = print_out(&report);
+            eprintln!("phdose: {count} problem(s) found in the procedure");
+            if printed != ExitCode::SUCCESS {
+                return printed;
+            }
+            ExitCode::from(exit_code(&Error::Problems { count, report }))
+        }
         Err(e) => {
             eprintln!("phdose: {e}");
             ExitCode::from(exit_code(&e))
@@ -24,6 +34,7 @@ fn exit_code(e: &Error) -> u8 {
     match e {
         Error::Parse(_) | Error::Input(_) => 2,
         Error::Unreachable(_) => 3,
+        Error::Problems { .. } => 4,
         Error::Store(_) | Error::Internal(_) | Error::Io(_) => 1,
     }
 }

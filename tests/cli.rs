@@ -347,8 +347,21 @@ fn bad_amounts_volumes_ph_and_reagents_exit_2() {
             "SMILES",
         ),
         (
-            [&base[..], &["--organic", "40mL", "--solvent", "toluene"]].concat(),
-            "not supported yet",
+            [&base[..], &["--organic", "40mL", "--solvent", "benzine"]].concat(),
+            "known: ethyl acetate, diethyl ether",
+        ),
+        (
+            [&base[..], &["--organic", "40mL"]].concat(),
+            "--organic needs --solvent",
+        ),
+        ([&base[..], &["--washes", "2"]].concat(), "--washes needs"),
+        (
+            [
+                &base[..],
+                &["--organic", "40mL", "--solvent", "ether", "--washes", "0"],
+            ]
+            .concat(),
+            "1 to 20",
         ),
         ([&base[..], &["--temp", "75"]].concat(), "outside 0-60"),
         (

@@ -182,6 +182,36 @@ fn pka_json_reports_macro_and_site_constants() {
     assert_eq!(m.len(), 2);
     assert!(((m[1] - m[0]) - (9.93 - 6.85)).abs() < 0.5, "{m:?}");
     assert_eq!(r["site_constants"].as_array().unwrap().len(), 2);
+    assert!(r.get("note").is_none(), "one list of notes only: {r}");
+    assert!(r["notes"].as_array().unwrap().is_empty(), "{r}");
+}
+
+#[test]
+fn pka_json_says_in_notes_when_sites_are_independent() {
+    // Twelve carboxylic acids: beyond the microstate limit, the one `notes` list says so.
+    let db = std::env::temp_dir().join(format!("phdose-interplay-12-{}", std::process::id()));
+    std::fs::create_dir_all(&db).unwrap();
+    let out = Command::new(env!("CARGO_BIN_EXE_phdose"))
+        .args(["--format", "json", "pka"])
+        .arg("C(C(=O)O)".repeat(12))
+        .arg("--db")
+        .arg(db.join("store.sqlite"))
+        .output()
+        .unwrap();
+    assert!(out.status.success());
+    let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    let r = &v[0];
+    assert!(r.get("note").is_none(), "{r}");
+    let notes: Vec<&str> = r["notes"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|n| n.as_str().unwrap())
+        .collect();
+    assert!(
+        notes.iter().any(|n| n.contains("treated as independent")),
+        "{notes:?}"
+    );
 }
 
 #[test]

@@ -20,6 +20,8 @@ use crate::error::{Error, Result};
 /// good to about 10 % outside their calibration set (Perrin, Dempsey & Serjeant 1981 quote
 /// estimates as good to a few tenths for one or two substituents; from memory).
 const WIDEN_PER_SHIFT: f64 = 0.10;
+/// The two-sided 90 % point of the normal distribution: ranges are nominal 90 % intervals.
+const Z90: f64 = 1.645;
 /// Extra half-width per ortho substituent (proximity effects beyond sigma_o; common practice).
 const WIDEN_ORTHO: f64 = 0.30;
 /// Extra half-width, in sigma units times rho, where sigma_p stands in for a missing sigma_o.
@@ -146,6 +148,7 @@ impl Estimator {
     ) -> Option<Correction> {
         match series.constant {
             Constant::Hammett => hammett::correct(mol, site, series, look),
+            Constant::HammettFive => hammett::correct_five(mol, site, series, look),
             Constant::Taft => Some(taft::correct(mol, site, series, look)),
         }
     }
@@ -169,44 +172,71 @@ impl Estimator {
             None => (series.base, c.shift()),
         };
         let pka = base + shift;
-        let mut widen: f64 = c
-            .terms
-            .iter()
-            .map(|t| WIDEN_PER_SHIFT * t.shift.abs())
-            .sum();
-        widen += c.terms.iter().filter(|t| t.ortho).count() as f64 * WIDEN_ORTHO;
-        widen += c.terms.iter().filter(|t| t.stand_in).count() as f64
-            * WIDEN_STAND_IN
-            * series.rho.abs().min(3.0);
-        widen += c.unknown as f64 * WIDEN_UNKNOWN;
-        if let Some(p) = &link.parent {
-            // The parent's own terms are exact by construction: do not widen for them.
-            widen -= p
-                .terms
-                .iter()
-                .map(|t| WIDEN_PER_SHIFT * t.shift.abs())
-                .sum::<f64>();
-            widen -= p.terms.iter().filter(|t| t.ortho).count() as f64 * WIDEN_ORTHO;
-            widen = widen.max(0.0);
-        }
-        let extrapolated = (pka - group.pka).abs() - EXTRAPOLATION_START;
-        if extrapolated > 0.0 {
-            widen += WIDEN_EXTRAPOLATION * extrapolated;
-        }
+        let (spread_low, spread_high) = widen_range(group, series, &c, link.parent.as_ref(), pka);
         site.pka = pka;
-        site.pka_low = pka - (group.pka - group.pka_low) - widen;
-        site.pka_high = pka + (group.pka_high - group.pka) + widen;
+        site.pka_low = pka - spread_low;
+        site.pka_high = pka + spread_high;
         site.source = describe(group, series, &c, link.parent.as_ref());
     }
+}
+
+/// Half-widths below and above a corrected estimate, as a nominal 90 % interval: the group's
+/// own documented spread and the method's error (the series' standard deviation and
+/// `WIDEN_PER_SHIFT` of each term's shift, independent, so summed in quadrature) combine in
+/// quadrature; ortho, stand-in, unknown and extrapolation allowances are systematic and add.
+/// A site that is its group's parent compound keeps the group's spread.
+fn widen_range(
+    group: &Group,
+    series: &Series,
+    c: &Correction,
+    parent: Option<&Correction>,
+    pka: f64,
+) -> (f64, f64) {
+    let sq = |c: &Correction| -> f64 {
+        c.terms
+            .iter()
+            .map(|t| (WIDEN_PER_SHIFT * t.shift).powi(2))
+            .sum()
+    };
+    let orthos = |c: &Correction| c.terms.iter().filter(|t| t.ortho).count() as f64;
+    let (mut term_sq, mut systematic) = (sq(c), orthos(c) * WIDEN_ORTHO);
+    let mut net = c.shift();
+    if let Some(p) = parent {
+        // The parent's own terms are exact by construction.
+        term_sq = (term_sq - sq(p)).max(0.0);
+        systematic = (systematic - orthos(p) * WIDEN_ORTHO).max(0.0);
+        net -= p.shift();
+    }
+    let from_series_base = parent.is_none() && (series.base - group.pka).abs() > 0.01;
+    let corrected = net.abs() > 0.01 || term_sq > 1e-6 || from_series_base;
+    let method = if corrected {
+        Z90 * (series.sd.powi(2) + term_sq).sqrt()
+    } else {
+        0.0
+    };
+    systematic += c.terms.iter().filter(|t| t.stand_in).count() as f64
+        * WIDEN_STAND_IN
+        * series.rho.abs().min(3.0);
+    systematic += c.unknown as f64 * WIDEN_UNKNOWN;
+    let extrapolated = (pka - group.pka).abs() - EXTRAPOLATION_START;
+    if extrapolated > 0.0 {
+        systematic += WIDEN_EXTRAPOLATION * extrapolated;
+    }
+    let side = |spread: f64| (spread.powi(2) + method.powi(2)).sqrt() + systematic;
+    (
+        side(group.pka - group.pka_low),
+        side(group.pka_high - group.pka),
+    )
 }
 
 fn describe(group: &Group, series: &Series, c: &Correction, parent: Option<&Correction>) -> String {
     let law = match series.constant {
         Constant::Hammett => "Hammett",
+        Constant::HammettFive => "Hammett (five-membered ring)",
         Constant::Taft => "Taft",
     };
     let sigma = match series.constant {
-        Constant::Hammett => "sigma",
+        Constant::Hammett | Constant::HammettFive => "sigma",
         Constant::Taft => "sigma*",
     };
     let terms: Vec<String> = c

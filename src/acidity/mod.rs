@@ -8,6 +8,7 @@ pub mod interplay;
 pub mod lookup;
 pub mod measured;
 pub mod profile;
+pub mod reading;
 pub mod sites;
 pub mod substituent;
 pub mod taft;

@@ -35,10 +35,11 @@ impl Profile {
     pub fn new(smiles: &str, handbook: &Handbook) -> Result<Profile> {
         let molecule = Molecule::from_smiles(smiles)?;
         let compound = split(&molecule)?;
-        let mut sites: Vec<Site> = estimate_sites(&compound.neutral, &handbook.groups, &handbook.estimator)
-            .into_iter()
-            .filter(|s| compound.parents.iter().any(|p| p.atoms.contains(&s.atom)))
-            .collect();
+        let mut sites: Vec<Site> =
+            estimate_sites(&compound.neutral, &handbook.groups, &handbook.estimator)
+                .into_iter()
+                .filter(|s| compound.parents.iter().any(|p| p.atoms.contains(&s.atom)))
+                .collect();
         // A stored measured value beats the estimate (design §3), unless --estimate-only.
         let applied = handbook.measured.apply(&compound, &mut sites);
         Ok(Profile {

@@ -26,13 +26,23 @@ pub struct Substituent {
     pub sigma_o: Option<f64>,
     /// Taft sigma*; `None` on a saturated carbon means "follow the chain".
     pub sigma_star: Option<f64>,
+    /// Ortho constant next to a ring aza site (2-substituted pyridinium ions); `None` means
+    /// `sigma_o` serves.
+    pub sigma_o_aza: Option<f64>,
     pub source: String,
 }
+
+/// Standard deviation of a series without its own: Perrin, Dempsey & Serjeant 1981 find most
+/// Hammett and Taft pKa equations good to 0.2-0.4 (from memory).
+pub const DEFAULT_SD: f64 = 0.4;
 
 /// Which substituent constant a series takes.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Constant {
     Hammett,
+    /// Hammett constants on a five-membered heteroaromatic ring that holds the site: every
+    /// other ring member and its substituents count with sigma_m (no para position exists).
+    HammettFive,
     Taft,
 }
 
@@ -50,6 +60,8 @@ pub struct Series {
     pub ortho_shift: f64,
     /// Factor per intervening saturated carbon (Taft series).
     pub attenuation: f64,
+    /// Standard deviation of the series' equation, pK units.
+    pub sd: f64,
     pub source: String,
 }
 
@@ -65,6 +77,8 @@ pub struct SubstituentRow {
     pub sigma_o: Option<f64>,
     pub sigma_star: Option<f64>,
     pub source: String,
+    #[serde(default)]
+    pub sigma_o_aza: Option<f64>,
 }
 
 /// A stored series row, before compiling.
@@ -78,6 +92,9 @@ pub struct SeriesRow {
     pub ortho_shift: Option<f64>,
     pub attenuation: Option<f64>,
     pub source: String,
+    /// Standard deviation of the equation (pK units); missing means `DEFAULT_SD`.
+    #[serde(default)]
+    pub sd: Option<f64>,
 }
 
 impl SubstituentRow {
@@ -102,6 +119,7 @@ impl SubstituentRow {
             sigma_minus: self.sigma_minus,
             sigma_o: self.sigma_o,
             sigma_star: self.sigma_star,
+            sigma_o_aza: self.sigma_o_aza,
             source: self.source,
         })
     }
@@ -116,9 +134,14 @@ impl SeriesRow {
             "taft" => Constant::Taft,
             other => return Err(bad(format!("unknown constant '{other}'"))),
         };
+        let mut constant = constant;
         let para_minus = match self.para.as_deref() {
             None | Some("") | Some("sigma_p") => false,
             Some("sigma_minus") => true,
+            Some("five_ring") if constant == Constant::Hammett => {
+                constant = Constant::HammettFive;
+                false
+            }
             Some(other) => return Err(bad(format!("unknown para constant '{other}'"))),
         };
         let attenuation = match (constant, self.attenuation) {
@@ -126,7 +149,12 @@ impl SeriesRow {
             (Constant::Taft, _) => {
                 return Err(bad("a taft series needs 0 < attenuation < 1".into()));
             }
-            (Constant::Hammett, a) => a.unwrap_or(0.0),
+            (_, a) => a.unwrap_or(0.0),
+        };
+        let sd = match self.sd {
+            Some(sd) if sd.is_finite() && sd >= 0.0 => sd,
+            Some(sd) => return Err(bad(format!("sd {sd} must be finite and >= 0"))),
+            None => DEFAULT_SD,
         };
         Ok(Series {
             name: self.name,
@@ -136,6 +164,7 @@ impl SeriesRow {
             para_minus,
             ortho_shift: self.ortho_shift.unwrap_or(0.0),
             attenuation,
+            sd,
             source: self.source,
         })
     }
@@ -143,8 +172,9 @@ impl SeriesRow {
 
 impl Substituent {
     /// The Hammett constant for a ring distance (1 ortho, 2 meta, 3 para) and whether it is a
-    /// stand-in (sigma_p for a missing sigma_o).
-    pub fn sigma_at(&self, distance: usize, para_minus: bool) -> (f64, bool) {
+    /// stand-in (sigma_p for a missing sigma_o). `aza_site`: the site is the ring N itself,
+    /// where an ortho group takes `sigma_o_aza` when it has one.
+    pub fn sigma_at(&self, distance: usize, para_minus: bool, aza_site: bool) -> (f64, bool) {
         let para = || {
             if para_minus {
                 self.sigma_minus.or(self.sigma_p)
@@ -154,6 +184,7 @@ impl Substituent {
             .unwrap_or(0.0)
         };
         match distance {
+            1 if aza_site && self.sigma_o_aza.is_some() => (self.sigma_o_aza.unwrap_or(0.0), false),
             1 => match self.sigma_o {
                 Some(s) => (s, false),
                 None => (para(), true),
@@ -179,17 +210,18 @@ mod tests {
             sigma_o: None,
             sigma_star: Some(4.0),
             source: "test row".into(),
+            sigma_o_aza: None,
         }
     }
 
     #[test]
     fn para_minus_is_used_only_where_the_series_asks() {
         let s = row("attached").compile().unwrap();
-        assert_eq!(s.sigma_at(3, true), (1.27, false));
-        assert_eq!(s.sigma_at(3, false), (0.78, false));
-        assert_eq!(s.sigma_at(2, true), (0.71, false));
+        assert_eq!(s.sigma_at(3, true, false), (1.27, false));
+        assert_eq!(s.sigma_at(3, false, false), (0.78, false));
+        assert_eq!(s.sigma_at(2, true, false), (0.71, false));
         // No sigma_o: the para value stands in and says so.
-        assert_eq!(s.sigma_at(1, false), (0.78, true));
+        assert_eq!(s.sigma_at(1, false, false), (0.78, true));
     }
 
     #[test]

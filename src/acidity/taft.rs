@@ -49,15 +49,24 @@ pub fn correct(mol: &Molecule, site: usize, series: &Series, look: &Lookup) -> C
     c
 }
 
-/// The carbonyl carbon of an acid O-H or S-H (the groups sit on it); else the site itself.
+/// The carbonyl carbon of an acid O-H or S-H (the groups sit on it); the carbinol carbon of
+/// an alcohol O-H (Ballinger & Long sum sigma* over the carbinol's groups); else the site.
 fn centre_atom(mol: &Molecule, site: usize) -> usize {
     if matches!(mol.atoms[site].element, 8 | 16)
         && let [(c, _)] = mol.adjacency[site][..]
-        && mol.adjacency[c].iter().any(|&(x, b)| {
-            x != site && mol.bonds[b].order == Order::Double && mol.atoms[x].element != 6
-        })
     {
-        return c;
+        let carbonyl = mol.adjacency[c].iter().any(|&(x, b)| {
+            x != site && mol.bonds[b].order == Order::Double && mol.atoms[x].element != 6
+        });
+        let carbinol = mol.atoms[site].element == 8
+            && mol.atoms[c].element == 6
+            && !mol.atoms[c].aromatic
+            && mol.adjacency[c]
+                .iter()
+                .all(|&(_, b)| mol.bonds[b].order == Order::Single);
+        if carbonyl || carbinol {
+            return c;
+        }
     }
     site
 }

@@ -10,6 +10,7 @@ use crate::error::{Error, ParseError, Result};
 use crate::report::{self, sig};
 use crate::units::{self, fmt_mass, fmt_moles, fmt_ph, fmt_volume};
 use crate::workup::adjust::{Adjustment, Request, SoluteInput, adjust};
+use crate::workup::adjust_layers::{OrganicRequest, adjust_with_organic};
 
 #[derive(Debug, clap::Args)]
 pub struct Args {
@@ -41,23 +42,31 @@ pub struct Args {
     /// under 1 atm CO2, the rest leaves as gas), air (equilibrium with the CO2 of air).
     #[arg(long, value_name = "MODE", default_value = "vented")]
     pub co2: String,
-    /// Volume of an organic layer in contact (not supported yet).
+    /// Volume of an organic layer in contact (`50mL`); needs --solvent.
     #[arg(long, value_name = "VOLUME")]
     pub organic: Option<String>,
-    /// Organic solvent name (not supported yet).
+    /// Organic solvent (`ethyl acetate`, `ether`, `mtbe`, `dcm`, `chloroform`, `toluene`,
+    /// `hexane`, `heptane`, `2-methf`, `1-butanol`, `octanol`); needs --organic.
     #[arg(long, value_name = "NAME")]
     pub solvent: Option<String>,
+    /// Number of aqueous portions the organic layer meets, each the same water volume with
+    /// the same reagent amount (needs --organic; default 1).
+    #[arg(long, value_name = "N")]
+    pub washes: Option<u32>,
     /// Replace a compound's pKa values (its sites in atom order): `--pka SMILES 4.2,9.8`.
     #[arg(long, num_args = 2, value_names = ["SMILES", "VALUES"], action = clap::ArgAction::Append)]
     pub pka: Vec<String>,
     /// Ignore stored measured values and use the group estimates.
     #[arg(long)]
     pub estimate_only: bool,
+    /// Also write a printable report (one self-contained HTML file, A4) to FILE.
+    #[arg(long, value_name = "FILE")]
+    pub html: Option<std::path::PathBuf>,
 }
 
 /// Regroups the `--solute` values into (SMILES, amount) pairs. clap hands them over flat; a
 /// value with a space is a whole pair, otherwise a SMILES is followed by its amount.
-fn solute_pairs(values: &[String]) -> Result<Vec<(String, String)>> {
+pub(crate) fn solute_pairs(values: &[String]) -> Result<Vec<(String, String)>> {
     let mut pairs = Vec::new();
     let mut rest = values.iter();
     while let Some(first) = rest.next() {
@@ -109,13 +118,43 @@ fn parse_pka_values(text: &str) -> Result<Vec<f64>> {
     Ok(out)
 }
 
-/// Turns the flags into a request, refusing what is not computed yet.
-pub fn request(args: &Args) -> Result<Request> {
-    if args.organic.is_some() || args.solvent.is_some() {
-        return Err(Error::Input(
-            "--organic and --solvent are not supported yet (one aqueous layer only)".into(),
-        ));
+/// The organic layer of `--organic VOLUME --solvent NAME [--washes N]`, if given.
+pub fn organic_request(args: &Args) -> Result<Option<OrganicRequest>> {
+    match (&args.organic, &args.solvent) {
+        (None, None) => {
+            if args.washes.is_some() {
+                return Err(Error::Input(
+                    "--washes needs an organic layer: --organic VOLUME --solvent NAME".into(),
+                ));
+            }
+            Ok(None)
+        }
+        (Some(volume), Some(solvent)) => {
+            let washes = args.washes.unwrap_or(1);
+            if !(1..=20).contains(&washes) {
+                return Err(Error::Input(format!(
+                    "--washes must be 1 to 20, not {washes}"
+                )));
+            }
+            // An unknown solvent is refused here, listing the known ones.
+            crate::partition::solvents::find(solvent)?;
+            Ok(Some(OrganicRequest {
+                solvent: solvent.clone(),
+                volume_l: units::parse_volume(volume)?.litres,
+                washes,
+            }))
+        }
+        (Some(_), None) => Err(Error::Input(
+            "--organic needs --solvent NAME (which solvent is the organic layer?)".into(),
+        )),
+        (None, Some(_)) => Err(Error::Input(
+            "--solvent needs --organic VOLUME (how much of it?)".into(),
+        )),
     }
+}
+
+/// Turns the flags into a request.
+pub fn request(args: &Args) -> Result<Request> {
     let co2 = Co2Mode::parse(&args.co2)?;
     let temperature = units::parse_temperature(&args.temp)?;
     let activity = if args.ideal {
@@ -273,6 +312,7 @@ fn table(results: &[Adjustment]) -> String {
         }
     }
     out += &report::table(&rows);
+    out += &layer_tables(results);
     if let Some(first) = results.first() {
         out += &format!("Layer before reagent: pH {}\n", fmt_ph(first.start_ph));
         for a in results {
@@ -298,12 +338,82 @@ fn table(results: &[Adjustment]) -> String {
     out
 }
 
+/// Where each compound is with two layers, and the portions of `--washes N`.
+fn layer_tables(results: &[Adjustment]) -> String {
+    let mut out = String::new();
+    for a in results {
+        let (Some(layers), Some(portions)) = (&a.layers, &a.washes) else {
+            continue;
+        };
+        let n = portions.len();
+        let water = if n > 1 {
+            format!("% in the {n} aqueous portions")
+        } else {
+            "% aqueous".to_string()
+        };
+        out += &format!(
+            "{} {} is the {} layer, water the {} one.\n",
+            fmt_volume(layers.organic_volume_ml / 1e3),
+            layers.solvent,
+            layers.organic,
+            layers.aqueous
+        );
+        let rows = a
+            .solutes
+            .iter()
+            .map(|s| {
+                vec![
+                    fmt_ph(a.ph),
+                    s.smiles.clone(),
+                    s.log_d.map_or("none".into(), |d| format!("{d:.2}")),
+                    format!("{:.1}", 100.0 * s.fraction_aqueous),
+                    format!("{:.1}", 100.0 * s.fraction_organic),
+                ]
+            })
+            .collect();
+        let header = ["pH", "smiles", "logD", water.as_str(), "% organic"]
+            .iter()
+            .map(|h| h.to_string())
+            .collect();
+        out += &report::grid(header, rows);
+        if n > 1 {
+            let mut header = vec!["portion".to_string(), "pH".to_string()];
+            header.extend(
+                a.solutes
+                    .iter()
+                    .map(|s| format!("% {} (total so far)", s.smiles)),
+            );
+            let rows = portions
+                .iter()
+                .map(|p| {
+                    let mut row = vec![p.portion.to_string(), fmt_ph(p.ph)];
+                    row.extend(p.solutes.iter().map(|x| {
+                        format!(
+                            "{:.1} ({:.1})",
+                            100.0 * x.fraction_this_portion,
+                            100.0 * x.fraction_aqueous_cumulative
+                        )
+                    }));
+                    row
+                })
+                .collect();
+            out += &report::grid(header, rows);
+        }
+    }
+    out
+}
+
 pub fn run(args: &Args, cli: &Cli) -> Result<String> {
     let request = request(args)?;
+    let organic = organic_request(args)?;
     let store = open_store(&cli.db)?;
     let handbook = Handbook::from_store(&store, args.estimate_only)?;
     let catalogue = store.reagents()?;
-    let results = adjust(&request, &handbook, &catalogue)?;
+    let results = match &organic {
+        Some(o) => adjust_with_organic(&request, o, &handbook, &catalogue)?,
+        None => adjust(&request, &handbook, &catalogue)?,
+    };
+    super::html::adjust(args, &request, &handbook, &results)?;
     match cli.format {
         Format::Table => Ok(table(&results)),
         Format::Csv => report::csv(&results.iter().map(CsvRow::from).collect::<Vec<_>>()),

@@ -137,6 +137,8 @@ fn options(args: &Args) -> Result<(Options, f64)> {
         to,
         charge: args.charge,
         marks,
+        // `curve` has no --temp: the pKa values are the 25 °C ones.
+        temperature_c: 25.0,
     };
     Ok((o, step))
 }
@@ -144,7 +146,7 @@ fn options(args: &Args) -> Result<(Options, f64)> {
 /// Octanol/water logP of the neutral parent (a stored handbook value unless
 /// `--estimate-only`, else the Wildman–Crippen estimate); `None` for a mixture of several
 /// parents, whose logD as one curve would mean nothing.
-fn logp_of(profile: &Profile, estimate_only: bool) -> Result<Option<OctanolLogP>> {
+pub(crate) fn logp_of(profile: &Profile, estimate_only: bool) -> Result<Option<OctanolLogP>> {
     match profile.compound.parents.as_slice() {
         [parent] => Ok(Some(octanol_log_p(
             &profile.compound.neutral,

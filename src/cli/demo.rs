@@ -7,7 +7,7 @@ use serde::Serialize;
 use super::{Cli, Format, open_store};
 use crate::acidity::Handbook;
 use crate::cli::pka::{PkaResult, annotate};
-use crate::equilibrium::{Conditions, Reagent};
+use crate::equilibrium::{Activity, Co2Mode, Conditions, Reagent};
 use crate::error::Result;
 use crate::report;
 use crate::units::{Amount, fmt_mass, fmt_moles, fmt_ph, fmt_volume};
@@ -56,7 +56,10 @@ fn wash(
         targets: vec![target],
         reagent: reagent.into(),
         stock: Some(stock.into()),
-        conditions: Conditions::standard(),
+        // The defaults of `adjust`: Davies activities, a vented funnel.
+        conditions: Conditions::standard()
+            .with_activity(Activity::Davies)
+            .with_co2(Co2Mode::Vented),
     };
     Ok(adjust(&request, handbook, catalogue)?.remove(0))
 }
@@ -81,7 +84,7 @@ fn scenario(handbook: &Handbook) -> Result<Demo> {
         },
         Wash {
             purpose: "basic wash: deprotonate the leftover carboxylic acid so it stays in water",
-            result: wash(&[(ACID, 0.80)], 9.0, "naoh", "1M", handbook, &catalogue)?,
+            result: wash(&[(ACID, 0.80)], 7.0, "nahco3", "sat", handbook, &catalogue)?,
         },
     ];
     Ok(Demo {

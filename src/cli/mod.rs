@@ -3,12 +3,16 @@
 
 pub mod adjust;
 pub mod batch;
+pub mod buffer;
+pub mod check;
 pub mod curve;
 pub mod db;
 pub mod demo;
+pub mod html;
 pub mod info;
 pub mod input;
 pub mod pka;
+pub mod plan;
 pub mod shell;
 
 use std::path::PathBuf;
@@ -53,8 +57,15 @@ pub enum Command {
     Pka(pka::Args),
     /// Reagent amount that brings an aqueous layer to a target pH.
     Adjust(adjust::Args),
+    /// Buffer recipe: what to weigh, titrate or mix for a pH, concentration and volume.
+    Buffer(buffer::Args),
+    /// A wash sequence that separates a mixture in an organic solvent, and how to recover
+    /// each compound.
+    Plan(plan::Args),
     /// Fraction ionized (or mean charge) and logD against pH, as a table or an SVG figure.
     Curve(curve::Args),
+    /// Simulate a written workup (TOML procedure) step by step and report its problems.
+    Check(check::Args),
     /// A built-in workup scenario, end to end.
     Demo(demo::Args),
     /// Your own measured pKa values: add, list, remove, import, export.
@@ -79,7 +90,10 @@ pub fn run(cli: &Cli) -> Result<String> {
         Command::Info(args) => info::run(args, cli),
         Command::Pka(args) => pka::run(args, cli),
         Command::Adjust(args) => adjust::run(args, cli),
+        Command::Buffer(args) => buffer::run(args, cli),
         Command::Curve(args) => curve::run(args, cli),
+        Command::Check(args) => check::run(args, cli),
+        Command::Plan(args) => plan::run(args, cli),
         Command::Demo(args) => demo::run(args, cli),
         Command::Db(args) => db::run(args, cli),
         Command::Completions(args) => shell::completions(args),

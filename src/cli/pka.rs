@@ -37,15 +37,14 @@ pub struct PkaResult {
     /// `user`, `measured` (built-in handbook row) or `estimate`; `mixed` when the parents of
     /// one input differ. Each site's `source` names the value it carries.
     pub origin: Origin,
-    /// How stored values were matched to sites, when that needed saying.
+    /// How stored values were matched to sites, and when sites had to be treated as
+    /// independent (too many for microstates), when that needed saying.
     pub notes: Vec<String>,
     pub error: Option<String>,
     /// Macroscopic pKa values (what a titration sees), ascending; sites interact.
     pub macro_pka: Vec<f64>,
     /// Per site: microscopic pKa and the pH of half ionization in the molecule.
     pub site_constants: Vec<SiteConstant>,
-    /// Set when sites had to be treated as independent.
-    pub note: Option<String>,
 }
 
 #[derive(Tabled, Serialize)]
@@ -68,15 +67,16 @@ struct Row {
 pub fn annotate(smiles: &str, handbook: &Handbook) -> Result<PkaResult> {
     let profile = Profile::new(smiles, handbook)?;
     let constants = profile.constants();
+    let mut notes = profile.notes;
+    notes.extend(constants.note);
     Ok(PkaResult {
         smiles: smiles.to_string(),
         sites: profile.sites,
         origin: profile.origin,
-        notes: profile.notes,
+        notes,
         error: None,
         macro_pka: constants.macro_pka,
         site_constants: constants.sites,
-        note: constants.note,
     })
 }
 
@@ -152,7 +152,6 @@ fn failed(smiles: &str, error: String) -> PkaResult {
         error: Some(error),
         macro_pka: vec![],
         site_constants: vec![],
-        note: None,
     }
 }
 

@@ -8,11 +8,14 @@
 
 use super::AqueousLayer;
 use super::polyprotic::Polyprotic;
-use super::reagent::{Reagent, Role, Stock, StockOffer};
+use super::reagent::{Reagent, Stock, StockOffer};
 use super::solve::{Equilibrium, solve_ph};
 use super::water::Conditions;
 use crate::error::{Error, Result};
 use crate::units::{PH_MAX, PH_MIN, fmt_ph};
+
+// The reagent choice of `--reagent auto` lives in its own module; these names stay here too.
+pub use super::auto::{AutoChoice, Practical, choose_auto, stocks_in_order};
 
 /// The answer to "how much reagent reaches this pH".
 #[derive(Debug, Clone, PartialEq)]
@@ -66,7 +69,7 @@ pub fn with_reagent(
 }
 
 /// What a reagent and stock can do to a layer.
-struct Reach {
+pub(super) struct Reach {
     /// pH with nothing added.
     start: f64,
     /// pH approached (solution) or attained at the solubility limit (solid).
@@ -77,7 +80,7 @@ struct Reach {
 
 impl Reach {
     /// True when some amount gives `target`. A solution only approaches its own pH.
-    fn contains(&self, target: f64) -> bool {
+    pub(super) fn contains(&self, target: f64) -> bool {
         let (lo, hi) = (self.start.min(self.limit), self.start.max(self.limit));
         if (target - self.start).abs() <= SAME_PH {
             return true;
@@ -88,9 +91,9 @@ impl Reach {
 }
 
 /// pH difference treated as no change at all.
-const SAME_PH: f64 = 1e-9;
+pub(super) const SAME_PH: f64 = 1e-9;
 
-fn reach(
+pub(super) fn reach(
     layer: &AqueousLayer,
     reagent: &Reagent,
     stock: &StockOffer,
@@ -206,88 +209,6 @@ pub fn dose_with_alternatives(
     }
 }
 
-/// The reagent and stock `--reagent auto` settled on, and why.
-#[derive(Debug, Clone, PartialEq)]
-pub struct AutoChoice {
-    pub reagent: Reagent,
-    pub stock: StockOffer,
-    /// One sentence for the report.
-    pub reason: String,
-}
-
-/// Stocks of `reagent` in the order they are tried: 1 M, saturated, the solid, then the
-/// rest from the most dilute solution up.
-fn stocks_in_order(reagent: &Reagent) -> Vec<&StockOffer> {
-    let rank = |s: &StockOffer| match (s.form, s.stock) {
-        (super::StockForm::Molar(m), _) if (m - 1.0).abs() < 1e-12 => (0, 0.0),
-        (super::StockForm::Saturated, _) => (1, 0.0),
-        (_, Stock::Solid) => (2, 0.0),
-        (_, Stock::Solution { molar }) => (3, molar),
-    };
-    let mut all: Vec<&StockOffer> = reagent.stocks.iter().collect();
-    all.sort_by(|a, b| {
-        let (ra, rb) = (rank(a), rank(b));
-        ra.0.cmp(&rb.0).then(ra.1.total_cmp(&rb.1))
-    });
-    all
-}
-
-/// The mildest reagent of `catalogue` (lowest `mildness` of the role the target needs: a
-/// base to go up, an acid to go down) with a stock that reaches `target_ph`.
-pub fn choose_auto(
-    layer: &AqueousLayer,
-    target_ph: f64,
-    conditions: &Conditions,
-    catalogue: &[Reagent],
-) -> Result<AutoChoice> {
-    let start = solve_ph(layer, conditions)?.ph;
-    let role = if target_ph >= start {
-        Role::Base
-    } else {
-        Role::Acid
-    };
-    let mut candidates: Vec<&Reagent> = catalogue.iter().filter(|r| r.role == role).collect();
-    candidates.sort_by_key(|r| r.mildness);
-    let what = match role {
-        Role::Base => "base",
-        Role::Acid => "acid",
-    };
-    let mut passed = Vec::new();
-    for reagent in candidates {
-        for offer in stocks_in_order(reagent) {
-            if let Ok(r) = reach(layer, reagent, offer, conditions)
-                && r.contains(target_ph)
-            {
-                let skipped = if passed.is_empty() {
-                    String::new()
-                } else {
-                    format!("; milder ones cannot: {}", passed.join(", "))
-                };
-                return Ok(AutoChoice {
-                    reagent: reagent.clone(),
-                    stock: offer.clone(),
-                    reason: format!(
-                        "auto: {} ({}) is the mildest listed {what} (mildness rank {}) that \
-                         takes the layer from pH {} to {}{skipped}",
-                        reagent.name,
-                        offer.label(),
-                        reagent.mildness,
-                        fmt_ph(start),
-                        fmt_ph(target_ph)
-                    ),
-                });
-            }
-        }
-        passed.push(reagent.name.clone());
-    }
-    Err(Error::Unreachable(format!(
-        "pH {} is out of reach from pH {} with every listed {what} ({})",
-        fmt_ph(target_ph),
-        fmt_ph(start),
-        passed.join(", ")
-    )))
-}
-
 fn unreachable_message(reagent: &Reagent, stock: &StockOffer, r: &Reach, target: f64) -> String {
     let head = format!(
         "pH {} is out of reach with {} ({})",
@@ -345,9 +266,8 @@ fn find_amount(
                     break;
                 }
             }
-            found.ok_or_else(|| {
-                Error::Unreachable(unreachable_message(reagent, stock, r, target))
-            })?
+            found
+                .ok_or_else(|| Error::Unreachable(unreachable_message(reagent, stock, r, target)))?
         }
     };
     // The pH is monotone in the amount: shrink the bracket (secant steps, bisection as the

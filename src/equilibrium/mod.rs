@@ -3,6 +3,7 @@
 //! and the inverse problem, how much of a reagent brings a layer to a target pH.
 
 pub mod activity;
+pub mod auto;
 pub mod carbonate;
 pub mod dose;
 pub mod microstates;
@@ -14,8 +15,9 @@ pub mod species;
 pub mod water;
 
 pub use activity::{DAVIES_LIMIT_M, Gammas};
+pub use auto::{AutoChoice, Practical, choose_auto};
 pub use carbonate::{CarbonateSpecies, Co2Mode};
-pub use dose::{AutoChoice, Dose, choose_auto, dose, dose_with_alternatives, reachable_range};
+pub use dose::{Dose, dose, dose_with_alternatives, reachable_range};
 pub use microstates::Coupling;
 pub use polyprotic::Polyprotic;
 pub use reagent::{Reagent, Role, Stock, StockForm, StockOffer};

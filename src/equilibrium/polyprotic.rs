@@ -39,8 +39,10 @@ pub(crate) fn pow10(x: f64) -> f64 {
 /// so no pH, however extreme, overflows.
 pub fn fractions(ph: f64, top_charge: i32, pkas: &[f64], lg: &dyn Fn(i32) -> f64) -> Vec<f64> {
     let mut logs = Vec::with_capacity(pkas.len() + 1);
-    let mut acc = -lg(top_charge);
-    logs.push(acc);
+    // acc: log10 of the activity of form i relative to form 0; each form's concentration is
+    // its activity over its own γ, so 1/γ is applied per form and never carried along.
+    let mut acc = 0.0;
+    logs.push(-lg(top_charge));
     for (i, pka) in pkas.iter().enumerate() {
         // [A_i]/[A_{i-1}] = K_i γ_{i-1} / (a_H γ_i); with the 1/γ_i factored per form.
         acc += ph - pka;
@@ -141,6 +143,22 @@ mod tests {
         for ph in [-400.0, 400.0] {
             assert!(p.fractions(ph, &lg).iter().all(|x| x.is_finite()));
         }
+    }
+
+    #[test]
+    fn a_cation_acid_feels_the_activity_of_its_own_charge() {
+        // NH4+ <-> NH3: [NH3]/[NH4+] = Ka γ(NH4+) / (a_H γ(NH3)) with γ(NH3) = 1, so at
+        // pH = pKa the concentration ratio is γ(+1) itself.
+        let nh4 = Polyprotic {
+            name: "ammonium".into(),
+            total_mol: 1e-3,
+            top_charge: 1,
+            pkas: vec![9.245],
+            dh_kj_mol: vec![None],
+        };
+        let lg = |z: i32| -0.1 * (z * z) as f64;
+        let f = nh4.fractions(9.245, &lg);
+        assert!((f[1] / f[0] - 10f64.powf(-0.1)).abs() < 1e-12);
     }
 
     #[test]

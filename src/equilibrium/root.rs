@@ -86,7 +86,8 @@ mod tests {
     #[test]
     fn ends_where_bisection_ends_in_far_fewer_steps() {
         // A charge balance shape: 10^-x minus a sigmoid, steep and flat by turns.
-        let g = |x: f64| 1e-3 / (1.0 + 10f64.powf(4.76 - x)) + 10f64.powf(x - 14.0) - 10f64.powf(-x);
+        let g =
+            |x: f64| 1e-3 / (1.0 + 10f64.powf(4.76 - x)) + 10f64.powf(x - 14.0) - 10f64.powf(-x);
         let mut calls = 0;
         let (lo, hi) = shrink(
             |x| {

@@ -97,7 +97,7 @@ fn residual(layer: &AqueousLayer, s: &Snapshot) -> f64 {
         .solutes
         .iter()
         .zip(&s.solutes)
-        .map(|(p, st)| p.total_mol * st.mean_charge)
+        .map(|(p, st)| aqueous_mol(p, st, layer.volume_l) * st.mean_charge)
         .sum();
     let systems: f64 = layer
         .polyprotics
@@ -111,6 +111,15 @@ fn residual(layer: &AqueousLayer, s: &Snapshot) -> f64 {
             + systems
             + s.carbonate.charge_mol())
             / layer.volume_l
+}
+
+/// Moles of a solute in the aqueous layer: all of it, or with an organic layer in contact the
+/// share its neutral fraction leaves in water. The charge balance counts only these. It stays
+/// monotone in pH: d ln f_neutral / dpH = ln 10 · (mean charge), so the share in water falls
+/// exactly where the charge per molecule is positive and falling, and rises where it is
+/// negative and falling; the product (aqueous charge) falls with pH either way.
+fn aqueous_mol(p: &Protolyte, st: &SoluteState, volume_l: f64) -> f64 {
+    p.total_mol * p.aqueous_share(st.fraction_neutral, volume_l)
 }
 
 /// Positive minus negative charge, mol/L, if the layer (constants already at the temperature
@@ -139,7 +148,9 @@ fn ionic_strength(layer: &AqueousLayer, ph: f64, c: &Conditions, g: &Gammas) -> 
         .solutes
         .iter()
         .zip(&s.solutes)
-        .map(|(p, st)| p.total_mol * mean_square_charge(p, ph, st.mean_charge, &lg))
+        .map(|(p, st)| {
+            aqueous_mol(p, st, layer.volume_l) * mean_square_charge(p, ph, st.mean_charge, &lg)
+        })
         .sum();
     let systems: f64 = layer
         .polyprotics

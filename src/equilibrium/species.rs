@@ -87,6 +87,12 @@ pub struct Protolyte {
     pub fixed_charge: f64,
     /// Pairwise interactions between `sites` (indices into it); empty = independent sites.
     pub couplings: Vec<Coupling>,
+    /// P·Vo in litres: an organic layer in contact holds as much of the neutral form as this
+    /// volume of water would (P = the solvent/water partition coefficient of the neutral
+    /// species, Vo the organic volume). 0 = no organic layer. With it, `total_mol` counts
+    /// both layers, and the charge balance sees only the aqueous share (see
+    /// [`Protolyte::aqueous_share`]).
+    pub organic_capacity_l: f64,
 }
 
 /// A protolyte's state at one pH.
@@ -107,7 +113,26 @@ impl Protolyte {
             sites,
             fixed_charge,
             couplings: Vec::new(),
+            organic_capacity_l: 0.0,
         }
+    }
+
+    /// The same protolyte shared with an organic layer of `organic_volume_l` litres whose
+    /// partition coefficient for the neutral form is `partition` (10^logP of that solvent).
+    pub fn with_organic(mut self, partition: f64, organic_volume_l: f64) -> Protolyte {
+        self.organic_capacity_l = partition * organic_volume_l;
+        self
+    }
+
+    /// Share of the compound in an aqueous layer of `volume_l` litres when `fraction_neutral`
+    /// of the aqueous compound is neutral: 1 / (1 + P·f_neutral·Vo/Va) (design §3, only the
+    /// neutral species crosses). A permanently charged compound stays in water: its
+    /// "all sites neutral" form still carries the fixed charge.
+    pub fn aqueous_share(&self, fraction_neutral: f64, volume_l: f64) -> f64 {
+        if self.organic_capacity_l <= 0.0 || self.fixed_charge != 0.0 {
+            return 1.0;
+        }
+        1.0 / (1.0 + self.organic_capacity_l * fraction_neutral.clamp(0.0, 1.0) / volume_l)
     }
 
     /// The same protolyte with interactions between its sites.
@@ -126,6 +151,12 @@ impl Protolyte {
         }
         if !self.fixed_charge.is_finite() {
             return Err(Error::Input("fixed charge must be finite".into()));
+        }
+        if !self.organic_capacity_l.is_finite() || self.organic_capacity_l < 0.0 {
+            return Err(Error::Input(format!(
+                "organic capacity (P times organic volume) must be finite and non-negative, not {}",
+                self.organic_capacity_l
+            )));
         }
         if let Some(site) = self.sites.iter().find(|s| !s.pka.is_finite()) {
             return Err(Error::Input(format!(

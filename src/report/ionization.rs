@@ -29,6 +29,9 @@ pub struct Compound {
     pub logp: Option<f64>,
     /// Where `logp` comes from (`measured: ...` or the estimate's method).
     pub logp_source: Option<String>,
+    /// What the constants needed saying (stored values matched to sites, sites treated as
+    /// independent), as `phdose pka` lists them.
+    pub notes: Vec<String>,
     /// One protolyte per titrating parent (a salt's counter-ions do not count).
     protolytes: Vec<Protolyte>,
 }
@@ -62,6 +65,12 @@ impl Compound {
             macro_pka: constants.macro_pka,
             logp,
             logp_source: None,
+            notes: profile
+                .notes
+                .iter()
+                .cloned()
+                .chain(constants.note)
+                .collect(),
             protolytes,
         }
     }
@@ -185,6 +194,9 @@ pub struct Options {
     pub charge: bool,
     /// pH values drawn as vertical lines.
     pub marks: Vec<f64>,
+    /// Temperature the pH scale refers to, °C (the axis label says it): the run's `--temp`,
+    /// 25 where there is none.
+    pub temperature_c: f64,
 }
 
 /// Short direct label for a curve end: the SMILES, cut with an ellipsis when long.
@@ -258,7 +270,7 @@ pub fn chart(compounds: &[Compound], o: &Options) -> Chart {
     };
     Chart {
         title: title.into(),
-        x_label: "pH (aqueous, 25 \u{b0}C)".into(),
+        x_label: format!("pH (aqueous, {} \u{b0}C)", o.temperature_c),
         x_min: o.from,
         x_max: o.to,
         x_ends: ("acidic".into(), "basic".into()),
@@ -428,6 +440,10 @@ fn notes(compounds: &[Compound], contrast: Option<Contrast>, o: &Options) -> Vec
         ));
     } else if compounds.len() > 1 {
         notes.push("No pH in range separates the compounds by ionization.".into());
+    }
+    for c in compounds {
+        let label = short_label(&c.smiles);
+        notes.extend(c.notes.iter().map(|n| format!("{label}: {n}.")));
     }
     let unknown: Vec<String> = compounds
         .iter()

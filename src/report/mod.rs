@@ -7,6 +7,7 @@ use tabled::{Table, Tabled};
 
 use crate::error::{Error, Result};
 
+pub mod html;
 pub mod ionization;
 pub mod plot;
 pub mod svg;

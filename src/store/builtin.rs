@@ -23,6 +23,8 @@ pub fn data_version() -> String {
             crate::chem::canon::KEY_VERSION,
             crate::equilibrium::reagent::REAGENTS_CSV,
             crate::equilibrium::reagent::REAGENT_STOCKS_CSV,
+            crate::buffer::system::BUFFERS_CSV,
+            crate::buffer::system::BUFFER_FORMS_CSV,
         ])
     )
 }
@@ -90,6 +92,7 @@ pub fn refresh(conn: &mut Connection) -> Result<()> {
     super::substituents::refresh(&tx)?;
     super::measured::refresh(&tx)?;
     super::reagents::refresh(&tx)?;
+    super::buffers::refresh(&tx)?;
     tx.execute(
         "INSERT INTO store_meta (key, value) VALUES ('data_version', ?1)
          ON CONFLICT(key) DO UPDATE SET value = excluded.value",

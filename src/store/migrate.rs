@@ -29,6 +29,16 @@ pub const MIGRATIONS: &[(u32, &str, &str)] = &[
         "reagents",
         include_str!("../../migrations/0004_reagents.sql"),
     ),
+    (
+        6,
+        "buffers",
+        include_str!("../../migrations/0006_buffers.sql"),
+    ),
+    (
+        7,
+        "series_sd",
+        include_str!("../../migrations/0007_series_sd.sql"),
+    ),
 ];
 
 /// Applies, in order, every migration the store has not recorded (by version, not by the

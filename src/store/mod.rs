@@ -4,6 +4,7 @@
 //! Built-in tables (`builtin_*`) are rewritten whenever the program's data version changes;
 //! the user's own tables are never touched by that refresh.
 
+pub mod buffers;
 pub mod builtin;
 pub mod measured;
 pub mod migrate;

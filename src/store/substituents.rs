@@ -44,7 +44,8 @@ pub fn refresh(tx: &Transaction) -> Result<()> {
     tx.execute("DELETE FROM builtin_series", [])?;
     let mut insert = tx.prepare(
         "INSERT INTO builtin_substituents (priority, name, smarts, position, sigma_m, sigma_p,
-         sigma_minus, sigma_o, sigma_star, source) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10)",
+         sigma_minus, sigma_o, sigma_star, source, sigma_o_aza)
+         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11)",
     )?;
     for (i, row) in reader(SUBSTITUENTS_CSV)
         .deserialize::<SubstituentRow>()
@@ -61,12 +62,13 @@ pub fn refresh(tx: &Transaction) -> Result<()> {
             s.sigma_minus,
             s.sigma_o,
             s.sigma_star,
-            s.source
+            s.source,
+            s.sigma_o_aza
         ])?;
     }
     let mut insert = tx.prepare(
         "INSERT INTO builtin_series (name, constant, rho, base, para, ortho_shift, attenuation,
-         source) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8)",
+         source, sd) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9)",
     )?;
     for row in reader(SERIES_CSV).deserialize::<SeriesRow>() {
         let s = row.map_err(csv_error("series.csv"))?;
@@ -78,7 +80,8 @@ pub fn refresh(tx: &Transaction) -> Result<()> {
             s.para,
             s.ortho_shift,
             s.attenuation,
-            s.source
+            s.source,
+            s.sd
         ])?;
     }
     let mut update =
@@ -95,7 +98,7 @@ impl Store {
     pub fn substituents(&self) -> Result<Vec<SubstituentRow>> {
         let mut stmt = self.connection().prepare(
             "SELECT name, smarts, position, sigma_m, sigma_p, sigma_minus, sigma_o, sigma_star,
-             source FROM builtin_substituents ORDER BY priority",
+             source, sigma_o_aza FROM builtin_substituents ORDER BY priority",
         )?;
         let rows = stmt.query_map([], |r| {
             Ok(SubstituentRow {
@@ -108,6 +111,7 @@ impl Store {
                 sigma_o: r.get(6)?,
                 sigma_star: r.get(7)?,
                 source: r.get(8)?,
+                sigma_o_aza: r.get(9)?,
             })
         })?;
         Ok(rows.collect::<std::result::Result<_, _>>()?)
@@ -116,7 +120,7 @@ impl Store {
     /// The series rows.
     pub fn series(&self) -> Result<Vec<SeriesRow>> {
         let mut stmt = self.connection().prepare(
-            "SELECT name, constant, rho, base, para, ortho_shift, attenuation, source
+            "SELECT name, constant, rho, base, para, ortho_shift, attenuation, source, sd
              FROM builtin_series ORDER BY name",
         )?;
         let rows = stmt.query_map([], |r| {
@@ -129,6 +133,7 @@ impl Store {
                 ortho_shift: r.get(5)?,
                 attenuation: r.get(6)?,
                 source: r.get(7)?,
+                sd: r.get(8)?,
             })
         })?;
         Ok(rows.collect::<std::result::Result<_, _>>()?)

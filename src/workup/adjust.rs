@@ -45,8 +45,14 @@ pub struct SoluteReport {
     pub sites: Vec<Site>,
     /// Fraction of the main titrating component in its all-neutral (extractable) form.
     pub fraction_neutral: f64,
-    /// Fraction in the aqueous layer (1 with one layer).
+    /// Fraction in the aqueous layer (1 with one layer); with `--washes N`, in the N
+    /// aqueous portions together.
     pub fraction_aqueous: f64,
+    /// Fraction in the organic layer (0 with one layer).
+    pub fraction_organic: f64,
+    /// log10 D at the pH reached (two layers; absent when it never leaves water).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub log_d: Option<f64>,
     /// Mean charge per formula unit, counter-ions excluded.
     pub mean_charge: f64,
 }
@@ -92,12 +98,18 @@ pub struct Adjustment {
     pub solutes: Vec<SoluteReport>,
     pub cautions: Vec<String>,
     pub notes: Vec<String>,
+    /// The two layers (with `--organic`): solvent, volumes, which is on top.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub layers: Option<super::adjust_layers::LayersReport>,
+    /// Each aqueous portion (with `--organic`; one unless `--washes N`).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub washes: Option<Vec<super::adjust_layers::PortionReport>>,
 }
 
 /// A solute read and converted to moles.
-struct Prepared {
-    profile: Profile,
-    amount_mol: f64,
+pub(super) struct Prepared {
+    pub(super) profile: Profile,
+    pub(super) amount_mol: f64,
 }
 
 fn prepare(input: &SoluteInput, handbook: &Handbook, water_l: f64) -> Result<Prepared> {
@@ -132,7 +144,10 @@ fn layer_of(prepared: &[Prepared], water_l: f64) -> AqueousLayer {
 }
 
 /// The stock to use: the one asked for, else 1 M, else saturated, else the solid.
-fn choose_stock<'a>(reagent: &'a Reagent, asked: Option<&str>) -> Result<&'a StockOffer> {
+pub(super) fn choose_stock<'a>(
+    reagent: &'a Reagent,
+    asked: Option<&str>,
+) -> Result<&'a StockOffer> {
     if let Some(text) = asked {
         let form = StockForm::parse(text)?;
         return reagent.offer(&form);
@@ -178,7 +193,11 @@ pub fn adjust(
             let (reagent, offer, why) = if auto {
                 let choice =
                     equilibrium::choose_auto(&layer, target, &request.conditions, catalogue)?;
-                (choice.reagent, choice.stock, Some(choice.reason))
+                (
+                    choice.reagent,
+                    choice.stock,
+                    Some(format!("auto: {}", choice.reason)),
+                )
             } else {
                 let reagent = Reagent::find(catalogue, &request.reagent)?;
                 let offer = choose_stock(reagent, request.stock.as_deref())?;
@@ -202,6 +221,7 @@ pub fn adjust(
                 limit_ph: limit,
                 total_solute_mol,
                 why,
+                solvent: None,
             };
             report(&context, &dose, target)
         })
@@ -209,39 +229,26 @@ pub fn adjust(
 }
 
 /// What `report` needs besides the dose.
-struct Context<'a> {
-    prepared: &'a [Prepared],
-    reagent: &'a Reagent,
-    conditions: &'a Conditions,
-    start_ph: f64,
-    limit_ph: f64,
-    total_solute_mol: f64,
+pub(super) struct Context<'a> {
+    pub(super) prepared: &'a [Prepared],
+    pub(super) reagent: &'a Reagent,
+    pub(super) conditions: &'a Conditions,
+    pub(super) start_ph: f64,
+    pub(super) limit_ph: f64,
+    pub(super) total_solute_mol: f64,
     /// Why `auto` chose this reagent.
-    why: Option<String>,
+    pub(super) why: Option<String>,
+    /// The organic solvent in contact, if any (for the cautions).
+    pub(super) solvent: Option<String>,
 }
 
 /// Molar gas constant in L atm mol^-1 K^-1 (CODATA 2018: 8.314462618 J/(mol K) / 101325 Pa).
 const GAS_CONSTANT_L_ATM: f64 = 0.082_057_366;
 
-fn report(ctx: &Context, dose: &Dose, target: f64) -> Result<Adjustment> {
+pub(super) fn report(ctx: &Context, dose: &Dose, target: f64) -> Result<Adjustment> {
     let (prepared, reagent, conditions) = (ctx.prepared, ctx.reagent, ctx.conditions);
     let eq = &dose.equilibrium;
-    let mut states = eq.solutes.iter();
-    let mut solutes = Vec::new();
-    for p in prepared {
-        let parents = &p.profile.compound.parents;
-        let these: Vec<_> = states.by_ref().take(parents.len()).collect();
-        // The main component (most atoms) stands for the compound's extractable share.
-        let main = (0..parents.len()).max_by_key(|&i| parents[i].atoms.len());
-        solutes.push(SoluteReport {
-            smiles: p.profile.smiles.clone(),
-            amount_mol: p.amount_mol,
-            sites: p.profile.sites.clone(),
-            fraction_neutral: main.map_or(1.0, |i| these[i].fraction_neutral),
-            fraction_aqueous: 1.0,
-            mean_charge: these.iter().map(|s| s.mean_charge).sum(),
-        });
-    }
+    let solutes = solute_reports(prepared, eq);
     let carbon = &eq.carbonate;
     let released_ml = carbon.released_mol * GAS_CONSTANT_L_ATM * conditions.temperature_k() * 1e3;
     // Gas: CO2 left the layer, or (closed) CO2 formed that would leave an open funnel.
@@ -259,20 +266,7 @@ fn report(ctx: &Context, dose: &Dose, target: f64) -> Result<Adjustment> {
         released_ml,
         ctx.limit_ph,
     ));
-    for p in prepared {
-        if let Some(b) = &p.profile.compound.balanced_with {
-            notes.push(format!(
-                "{} carries a charge; taken as its salt with {b}.",
-                p.profile.smiles
-            ));
-        }
-        if p.profile.sites.is_empty() {
-            notes.push(format!(
-                "{} has no site that titrates in water; it stays neutral.",
-                p.profile.smiles
-            ));
-        }
-    }
+    notes.extend(solute_notes(prepared));
     notes.extend(model_notes(prepared, conditions, eq.ionic_strength));
     let total_solute_mol = ctx.total_solute_mol;
     let start_ph = ctx.start_ph;
@@ -301,10 +295,58 @@ fn report(ctx: &Context, dose: &Dose, target: f64) -> Result<Adjustment> {
         cautions: cautions_for(
             &reagent.name,
             &dose.stock,
-            &Situation { gas, solvent: None },
+            &Situation {
+                gas,
+                solvent: ctx.solvent.clone(),
+            },
         )?,
         notes,
+        layers: None,
+        washes: None,
     })
+}
+
+/// Each solute at the layer's equilibrium `eq` (one layer: all of it aqueous).
+fn solute_reports(prepared: &[Prepared], eq: &equilibrium::Equilibrium) -> Vec<SoluteReport> {
+    let mut states = eq.solutes.iter();
+    let mut solutes = Vec::new();
+    for p in prepared {
+        let parents = &p.profile.compound.parents;
+        let these: Vec<_> = states.by_ref().take(parents.len()).collect();
+        // The main component (most atoms) stands for the compound's extractable share.
+        let main = (0..parents.len()).max_by_key(|&i| parents[i].atoms.len());
+        solutes.push(SoluteReport {
+            smiles: p.profile.smiles.clone(),
+            amount_mol: p.amount_mol,
+            sites: p.profile.sites.clone(),
+            fraction_neutral: main.map_or(1.0, |i| these[i].fraction_neutral),
+            fraction_aqueous: 1.0,
+            fraction_organic: 0.0,
+            log_d: None,
+            mean_charge: these.iter().map(|s| s.mean_charge).sum(),
+        });
+    }
+    solutes
+}
+
+/// Salts taken with their counter-ions, and solutes with nothing to titrate.
+fn solute_notes(prepared: &[Prepared]) -> Vec<String> {
+    let mut notes = Vec::new();
+    for p in prepared {
+        if let Some(b) = &p.profile.compound.balanced_with {
+            notes.push(format!(
+                "{} carries a charge; taken as its salt with {b}.",
+                p.profile.smiles
+            ));
+        }
+        if p.profile.sites.is_empty() {
+            notes.push(format!(
+                "{} has no site that titrates in water; it stays neutral.",
+                p.profile.smiles
+            ));
+        }
+    }
+    notes
 }
 
 /// What the CO2 did, and how far a carbonate reagent can go.
