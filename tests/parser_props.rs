@@ -1,6 +1,7 @@
 //! Every parser of user text on random input (proptest): SMILES (through molecule, sites, pKa
-//! and site interplay), SMARTS (through matching), amounts, volumes, pH lists, temperatures
-//! and pKa lists. None may panic; a failure is a `ParseError` whose position lies inside the
+//! and site interplay), SMARTS (through matching), amounts, volumes, pH lists, temperatures,
+//! pKa lists, and the TOML procedure of `phdose check` (an example file with a stretch
+//! replaced by random text, read and simulated). None may panic; a failure is a `ParseError` whose position lies inside the
 //! text (or just past its end), and text that reads is accepted again when written back.
 //! The fuzz targets in fuzz/ search the same paths far longer; these keep them honest in
 //! `cargo test`.
@@ -41,6 +42,37 @@ fn quantity_text() -> impl Strategy<Value = String> {
         r"[0-9.eE+\-, ;:]{0,8}(mmol|mol|µmol|g|mg|kg|mL|L|µL|M|mM|%|sat|equiv|C|°C|K|acid|base)?[ 0-9.]{0,3}",
     )
     .unwrap()
+}
+
+/// The built-in tables and reagents, once.
+fn catalogue() -> &'static Vec<phdose::equilibrium::Reagent> {
+    static C: OnceLock<Vec<phdose::equilibrium::Reagent>> = OnceLock::new();
+    C.get_or_init(|| {
+        phdose::store::Store::in_memory()
+            .unwrap()
+            .reagents()
+            .unwrap()
+    })
+}
+
+const PROCEDURE: &str = include_str!("../examples/amine-back-extraction-ph.toml");
+
+proptest! {
+    #![proptest_config(Config { cases: 40, ..Config::default() })]
+
+    #[test]
+    fn a_damaged_procedure_never_panics(
+        start in 0..PROCEDURE.len(),
+        len in 0usize..40,
+        patch in "[\\PC\n]{0,12}",
+    ) {
+        let mut text = PROCEDURE.to_string();
+        let start = (0..=start).rev().find(|&i| text.is_char_boundary(i)).unwrap();
+        let end = (start + len).min(text.len());
+        let end = (end..=text.len()).find(|&i| text.is_char_boundary(i)).unwrap();
+        text.replace_range(start..end, &patch);
+        let _ = phdose::workup::procedure::check(&text, handbook(), catalogue());
+    }
 }
 
 proptest! {
