@@ -16,7 +16,6 @@ Prints the ratios (README's performance section quotes them). Run from the repos
 import argparse
 import csv
 import os
-import resource
 import subprocess
 import sys
 import tempfile
@@ -54,11 +53,20 @@ def run_phdose(binary, path, db, jobs):
 
 
 def peak_rss_kb(binary, path, db):
-    """Peak resident memory of one batch run, from wait4's rusage (Linux: kilobytes)."""
-    proc = subprocess.Popen(
-        [binary, "pka", "--input", path, "--format", "jsonl", "--db", db],
-        stdout=subprocess.DEVNULL,
-    )
+    """Peak resident memory of one batch run, kilobytes. Measured by GNU time in its own small
+    process: a child forked straight from this Python (RDKit loaded) would count Python's
+    pages in its high-water mark, since that mark survives exec."""
+    args = [binary, "pka", "--input", path, "--format", "jsonl", "--db", db]
+    if os.path.exists("/usr/bin/time"):
+        out = subprocess.run(
+            ["/usr/bin/time", "-f", "%M"] + args,
+            stdout=subprocess.DEVNULL,
+            stderr=subprocess.PIPE,
+            text=True,
+            check=True,
+        )
+        return int(out.stderr.strip().splitlines()[-1])
+    proc = subprocess.Popen(args, stdout=subprocess.DEVNULL)
     _, status, usage = os.wait4(proc.pid, 0)
     if status != 0:
         sys.exit(f"phdose failed on the RSS input (status {status})")

@@ -174,22 +174,46 @@ const WIDEST: (f64, f64) = (-150.0, 170.0);
 /// Relative change in ionic strength at which the iteration stops.
 const I_TOLERANCE: f64 = 1e-12;
 
-/// The pH that closes the charge balance at fixed activity coefficients.
-fn bisect_ph(layer: &AqueousLayer, c: &Conditions, g: &Gammas) -> Result<f64> {
+/// The pH that closes the charge balance at fixed activity coefficients. `guess` (the root of
+/// a nearby problem, as in the ionic-strength iteration) only narrows the first bracket; the
+/// answer is the same neighbouring doubles either way.
+fn bisect_ph(layer: &AqueousLayer, c: &Conditions, g: &Gammas, guess: Option<f64>) -> Result<f64> {
     let f = |ph: f64| residual(layer, &snapshot(layer, ph, c, g));
-    let (mut lo, mut hi) = BRACKET;
-    // The residual falls with pH: positive at the low end, negative at the high end.
-    while f(lo) < 0.0 {
-        lo -= 10.0;
-        if lo < WIDEST.0 {
-            return Err(no_balance());
+    // The residual falls with pH: positive (or zero) at the low end, negative at the high end.
+    let narrow = guess
+        .filter(|p| (BRACKET.0..BRACKET.1).contains(p))
+        .and_then(|p| {
+            [1e-6, 1e-3, 0.3].into_iter().find_map(|step| {
+                let (lo, hi) = (p - step, p + step);
+                let (f_lo, f_hi) = (f(lo), f(hi));
+                (f_lo >= 0.0 && f_hi <= 0.0).then_some(((lo, f_lo), (hi, f_hi)))
+            })
+        });
+    let ((lo, f_lo), (hi, f_hi)) = match narrow {
+        Some(bracket) => bracket,
+        None => {
+            let (mut lo, mut hi) = BRACKET;
+            let mut f_lo = f(lo);
+            while f_lo < 0.0 {
+                lo -= 10.0;
+                if lo < WIDEST.0 {
+                    return Err(no_balance());
+                }
+                f_lo = f(lo);
+            }
+            let mut f_hi = f(hi);
+            while f_hi > 0.0 {
+                hi += 10.0;
+                if hi > WIDEST.1 {
+                    return Err(no_balance());
+                }
+                f_hi = f(hi);
+            }
+            ((lo, f_lo), (hi, f_hi))
         }
-    }
-    while f(hi) > 0.0 {
-        hi += 10.0;
-        if hi > WIDEST.1 {
-            return Err(no_balance());
-        }
+    };
+    if f_lo.is_nan() || f_hi.is_nan() {
+        return Err(no_balance());
     }
     // Down to neighbouring doubles, as bisection would end: the last digits matter when
     // large, nearly cancelling solute charges meet a small [H+]. The residual falls with pH,
@@ -198,28 +222,32 @@ fn bisect_ph(layer: &AqueousLayer, c: &Conditions, g: &Gammas) -> Result<f64> {
         r if r.is_nan() => Err(no_balance()),
         r => Ok(-r),
     };
-    let (lo, hi) = super::root::shrink(g, (lo, g(lo)?), (hi, g(hi)?), |_, g| g == 0.0)?;
+    let (lo, hi) = super::root::shrink(g, (lo, -f_lo), (hi, -f_hi), |_, g| g == 0.0)?;
     Ok(0.5 * (lo + hi))
 }
 
 /// Davies activities with the ionic strength they imply at the pH they give.
-fn self_consistent(layer: &AqueousLayer, c: &Conditions) -> Result<Gammas> {
+fn self_consistent(layer: &AqueousLayer, c: &Conditions) -> Result<(Gammas, Option<f64>)> {
     let a = c.davies_a();
     let davies = |i: f64| Gammas::Davies {
         a,
         ionic_strength: i,
     };
-    // I the species give when the activities are those of `i`.
+    // I the species give when the activities are those of `i`; each solve starts next to
+    // the pH the last one found.
+    let last_ph = std::cell::Cell::new(None);
     let implied = |i: f64| -> Result<f64> {
         let g = davies(i);
-        Ok(ionic_strength(layer, bisect_ph(layer, c, &g)?, c, &g))
+        let ph = bisect_ph(layer, c, &g, last_ph.get())?;
+        last_ph.set(Some(ph));
+        Ok(ionic_strength(layer, ph, c, &g))
     };
     let close = |a: f64, b: f64| (a - b).abs() <= I_TOLERANCE * a.abs().max(b.abs()) + 1e-300;
     let mut i = implied(0.0)?;
     for _ in 0..60 {
         let next = implied(i)?;
         if close(next, i) {
-            return Ok(davies(next));
+            return Ok((davies(next), last_ph.get()));
         }
         i = next;
     }
@@ -238,7 +266,7 @@ fn self_consistent(layer: &AqueousLayer, c: &Conditions) -> Result<Gammas> {
             break;
         }
     }
-    Ok(davies(0.5 * (lo + hi)))
+    Ok((davies(0.5 * (lo + hi)), last_ph.get()))
 }
 
 /// Solves the charge balance of `layer` for its pH under `conditions` (temperature,
@@ -246,11 +274,11 @@ fn self_consistent(layer: &AqueousLayer, c: &Conditions) -> Result<Gammas> {
 pub fn solve_ph(layer: &AqueousLayer, conditions: &Conditions) -> Result<Equilibrium> {
     layer.validate()?;
     let layer = at_temperature(layer, conditions);
-    let gammas = match conditions.activity() {
-        Activity::Ideal => Gammas::Ideal,
+    let (gammas, guess) = match conditions.activity() {
+        Activity::Ideal => (Gammas::Ideal, None),
         Activity::Davies => self_consistent(&layer, conditions)?,
     };
-    let ph = bisect_ph(&layer, conditions, &gammas)?;
+    let ph = bisect_ph(&layer, conditions, &gammas, guess)?;
     let s = snapshot(&layer, ph, conditions, &gammas);
     Ok(Equilibrium {
         ph,
