@@ -29,6 +29,21 @@ pub fn find_sites(mol: &Molecule, groups: &[Group]) -> Vec<Site> {
     // Ring facts and sorted neighbours once for the whole table, not once per pattern.
     let target = Target::new(mol);
     for (g, group) in groups.iter().enumerate() {
+        // A row can only claim a free atom of an element its site atom allows; when there is
+        // none left, its matches would all be ignored, so they are not searched for.
+        let allowed = group
+            .pattern
+            .graph()
+            .elements
+            .get(group.site)
+            .copied()
+            .unwrap_or(u128::MAX);
+        let open = mol.atoms.iter().enumerate().any(|(a, atom)| {
+            claimed[a].is_none() && (atom.element >= 128 || allowed >> atom.element & 1 == 1)
+        });
+        if !open {
+            continue;
+        }
         for m in group.pattern.matches_in(&target) {
             let atom = m[group.site];
             if claimed[atom].is_none() {
