@@ -5,31 +5,18 @@
 //! one equivalent of bicarbonate is needed per equivalent of acid; dichloromethane, density
 //! 1.33 g/mL, is the lower layer).
 
+mod common;
+
 use std::path::PathBuf;
-use std::process::{Command, Output};
+use std::process::Output;
 
 use phdose::acidity::Handbook;
 use phdose::equilibrium::Reagent;
 use phdose::workup::procedure;
 use serde_json::Value;
 
-fn temp_db(name: &str) -> PathBuf {
-    let dir = std::env::temp_dir().join(format!("phdose-check-{}-{name}", std::process::id()));
-    std::fs::create_dir_all(&dir).unwrap();
-    dir.join("store.sqlite")
-}
-
 fn example(name: &str) -> String {
     concat!(env!("CARGO_MANIFEST_DIR"), "/examples/").to_string() + name
-}
-
-fn phdose(name: &str, args: &[&str]) -> Output {
-    Command::new(env!("CARGO_BIN_EXE_phdose"))
-        .args(args)
-        .arg("--db")
-        .arg(temp_db(name))
-        .output()
-        .expect("phdose runs")
 }
 
 /// Runs `check` on a file as JSON; returns the exit code and the report.
@@ -326,4 +313,12 @@ fn junk_never_panics() {
         let text = String::from_utf8_lossy(&bytes);
         let _ = procedure::check(&text, &handbook, &catalogue);
     }
+}
+
+fn temp_db(name: &str) -> PathBuf {
+    common::temp_db("check", name)
+}
+
+fn phdose(name: &str, args: &[&str]) -> Output {
+    common::phdose("check", name, args)
 }

@@ -1,38 +1,13 @@
 //! The binary end to end: output contracts (JSON keys of design §5) and every error path's exit
 //! code and message. Each test uses its own temporary store through `--db`.
 
+mod common;
+use common::{json, stderr, stdout};
+
 use std::path::PathBuf;
 use std::process::{Command, Output};
 
 use serde_json::Value;
-
-fn temp_db(name: &str) -> PathBuf {
-    let dir = std::env::temp_dir().join(format!("phdose-cli-{}-{name}", std::process::id()));
-    std::fs::create_dir_all(&dir).unwrap();
-    dir.join("store.sqlite")
-}
-
-fn phdose(name: &str, args: &[&str]) -> Output {
-    Command::new(env!("CARGO_BIN_EXE_phdose"))
-        .args(args)
-        .arg("--db")
-        .arg(temp_db(name))
-        .output()
-        .expect("phdose runs")
-}
-
-fn stdout(o: &Output) -> String {
-    String::from_utf8_lossy(&o.stdout).into_owned()
-}
-
-fn stderr(o: &Output) -> String {
-    String::from_utf8_lossy(&o.stderr).into_owned()
-}
-
-fn json(o: &Output) -> Value {
-    assert!(o.status.success(), "failed: {}", stderr(o));
-    serde_json::from_slice(&o.stdout).expect("valid JSON")
-}
 
 #[test]
 fn invalid_smiles_exits_2_with_a_caret_under_the_bad_character() {
@@ -482,4 +457,12 @@ fn info_reports_logp_and_its_source() {
     ));
     assert!((v["logp"].as_f64().unwrap() - 1.3922).abs() < 0.001, "{v}");
     assert!(v["logp_source"].as_str().unwrap().starts_with("estimate"));
+}
+
+fn temp_db(name: &str) -> PathBuf {
+    common::temp_db("cli", name)
+}
+
+fn phdose(name: &str, args: &[&str]) -> Output {
+    common::phdose("cli", name, args)
 }

@@ -1,35 +1,10 @@
 //! `phdose buffer` end to end: the JSON keys of design §5, the three recipes, CSV and the
 //! exit codes of bad input (2) and unreachable targets (3). Each test has its own store.
 
-use std::path::PathBuf;
-use std::process::{Command, Output};
+mod common;
+use common::{json, stderr};
 
-use serde_json::Value;
-
-fn temp_db(name: &str) -> PathBuf {
-    let dir = std::env::temp_dir().join(format!("phdose-buffer-{}-{name}", std::process::id()));
-    std::fs::create_dir_all(&dir).unwrap();
-    dir.join("store.sqlite")
-}
-
-fn phdose(name: &str, args: &[&str]) -> Output {
-    Command::new(env!("CARGO_BIN_EXE_phdose"))
-        .arg("buffer")
-        .args(args)
-        .arg("--db")
-        .arg(temp_db(name))
-        .output()
-        .expect("phdose runs")
-}
-
-fn stderr(o: &Output) -> String {
-    String::from_utf8_lossy(&o.stderr).into_owned()
-}
-
-fn json(o: &Output) -> Value {
-    assert!(o.status.success(), "failed: {}", stderr(o));
-    serde_json::from_slice(&o.stdout).expect("valid JSON")
-}
+use std::process::Output;
 
 #[test]
 fn pair_recipe_json_has_the_contract_keys() {
@@ -219,4 +194,8 @@ fn list_names_every_system() {
     let o = phdose("list", &["--list", "--format", "json"]);
     let v = json(&o);
     assert!(v.as_array().unwrap().len() >= 13);
+}
+
+fn phdose(name: &str, args: &[&str]) -> Output {
+    common::phdose("buffer", name, &[&["buffer"], args].concat())
 }

@@ -3,8 +3,9 @@
 //! strong base, a neutral compound stays in the organic layer), reproduced by the planner
 //! from the model; a pair it cannot split; and the command-line contracts with exit codes.
 
-use std::path::PathBuf;
-use std::process::{Command, Output};
+mod common;
+
+use std::process::Output;
 
 use phdose::acidity::Handbook;
 use phdose::equilibrium::{Conditions, Reagent};
@@ -125,21 +126,6 @@ fn zwitterion_never_leaves_water() {
     );
 }
 
-fn temp_db(name: &str) -> PathBuf {
-    let dir = std::env::temp_dir().join(format!("phdose-plan-{}-{name}", std::process::id()));
-    std::fs::create_dir_all(&dir).unwrap();
-    dir.join("store.sqlite")
-}
-
-fn phdose(name: &str, args: &[&str]) -> Output {
-    Command::new(env!("CARGO_BIN_EXE_phdose"))
-        .args(args)
-        .arg("--db")
-        .arg(temp_db(name))
-        .output()
-        .expect("phdose runs")
-}
-
 #[test]
 fn plan_json_keys_and_exit_codes() {
     let o = phdose(
@@ -258,4 +244,8 @@ fn adjust_two_layers_json() {
     assert_eq!(v["layers"]["organic"], "lower");
     assert_eq!(v["washes"].as_array().unwrap().len(), 2);
     assert!(v["cautions"].to_string().contains("lower one"));
+}
+
+fn phdose(name: &str, args: &[&str]) -> Output {
+    common::phdose("plan", name, args)
 }
