@@ -3,6 +3,8 @@
 //! pipe early. Expected values are the inputs themselves (order, count) and phdose's own
 //! one-structure answers, so the batch path is checked against the single path.
 
+mod common;
+
 use std::io::{BufRead, BufReader, Write};
 use std::path::PathBuf;
 use std::process::{Command, Output, Stdio};
@@ -10,18 +12,11 @@ use std::process::{Command, Output, Stdio};
 use serde_json::Value;
 
 fn dir(name: &str) -> PathBuf {
-    let d = std::env::temp_dir().join(format!("phdose-batch-{}-{name}", std::process::id()));
-    std::fs::create_dir_all(&d).unwrap();
-    d
+    common::temp_dir("batch", name)
 }
 
 fn phdose(name: &str, args: &[&str]) -> Output {
-    Command::new(env!("CARGO_BIN_EXE_phdose"))
-        .args(args)
-        .arg("--db")
-        .arg(dir(name).join("store.sqlite"))
-        .output()
-        .expect("phdose runs")
+    common::phdose("batch", name, args)
 }
 
 fn lines(o: &Output) -> Vec<Value> {

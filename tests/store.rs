@@ -3,25 +3,20 @@
 //! older migrations (tests/reference/store_v2.sqlite, made by make_store_v2_fixture.py)
 //! upgrades with the user's rows intact; export then import gives the same rows back.
 
+mod common;
+
 use std::path::{Path, PathBuf};
 use std::process::{Command, Output};
 
+use common::phdose_with_db as phdose;
 use serde_json::Value;
 
+/// An empty folder for one test (emptied first: these tests need a store that does not exist).
 fn temp_dir(name: &str) -> PathBuf {
-    let d = std::env::temp_dir().join(format!("phdose-store-{}-{name}", std::process::id()));
-    let _ = std::fs::remove_dir_all(&d);
+    let d = common::temp_dir("store", name);
+    std::fs::remove_dir_all(&d).unwrap();
     std::fs::create_dir_all(&d).unwrap();
     d
-}
-
-fn phdose(db: &Path, args: &[&str]) -> Output {
-    Command::new(env!("CARGO_BIN_EXE_phdose"))
-        .args(args)
-        .arg("--db")
-        .arg(db)
-        .output()
-        .expect("phdose runs")
 }
 
 fn ok(o: &Output) -> String {
