@@ -10,7 +10,6 @@ pub mod db;
 pub mod demo;
 pub mod html;
 pub mod info;
-pub mod input;
 pub mod pka;
 pub mod plan;
 pub mod shell;
