@@ -160,11 +160,28 @@ pub fn dose(
             reagent, stock, &r, target_ph,
         )));
     }
-    let mol = if (target_ph - r.start).abs() <= SAME_PH {
-        0.0
-    } else {
-        find_amount(layer, reagent, stock, &r, target_ph, conditions)?
-    };
+    if (target_ph - r.start).abs() <= SAME_PH {
+        return finish(layer, reagent, stock, 0.0, target_ph, conditions);
+    }
+    // Solved at the target pH first (one root in the amount); should that route find no
+    // bracket, or its amount fail the re-solve check, the amount is found by solving the pH
+    // at each trial amount, as before.
+    let direction = if r.limit > r.start { 1.0 } else { -1.0 };
+    let direct = super::fixed_ph::amount_at_ph(
+        layer,
+        reagent,
+        &stock.stock,
+        target_ph,
+        direction,
+        r.max_mol,
+        conditions,
+    )?;
+    if let Some(mol) = direct
+        && let Ok(done) = finish(layer, reagent, stock, mol, target_ph, conditions)
+    {
+        return Ok(done);
+    }
+    let mol = find_amount(layer, reagent, stock, &r, target_ph, conditions)?;
     finish(layer, reagent, stock, mol, target_ph, conditions)
 }
 

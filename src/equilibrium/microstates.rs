@@ -115,37 +115,75 @@ pub fn distribution(
     ph: f64,
     log10_gamma: &dyn Fn(i32) -> f64,
 ) -> Distribution {
-    let n = sites.len();
-    if n > MAX_COUPLED_SITES {
-        return independent_distribution(sites, fixed, ph, log10_gamma);
+    Table::new(sites, couplings).distribution(sites, fixed, ph, log10_gamma)
+}
+
+/// The pH-free part of one molecule's microstate weights, worked out once and used at many
+/// pH values (a solve evaluates the same solutes dozens of times).
+#[derive(Debug, Clone)]
+pub(crate) struct Table {
+    /// Empty above [`MAX_COUPLED_SITES`] (independent sites, no enumeration).
+    terms: Vec<f64>,
+    charges: Vec<i32>,
+}
+
+impl Table {
+    pub(crate) fn new(sites: &[Site], couplings: &[Coupling]) -> Table {
+        if sites.len() > MAX_COUPLED_SITES {
+            return Table {
+                terms: Vec::new(),
+                charges: Vec::new(),
+            };
+        }
+        let (terms, charges) = standard_terms(sites, couplings);
+        Table { terms, charges }
     }
-    let (terms, charges) = standard_terms(sites, couplings);
-    // γ is looked up once per charge level, not once per microstate.
-    let lowest = -(n as i32);
-    let gammas: Vec<f64> = (lowest..=n as i32)
-        .map(|z| log10_gamma(fixed + z))
-        .collect();
-    let logw: Vec<f64> = terms
-        .iter()
-        .zip(&charges)
-        .map(|(t, &z)| t - z as f64 * ph - gammas[(z - lowest) as usize])
-        .collect();
-    let total = log10_sum(logw.iter().copied());
-    let p: Vec<f64> = logw.iter().map(|w| 10f64.powf(w - total)).collect();
-    let mut ionized = vec![0.0; n];
-    let mut mean = 0.0;
-    for (mask, &pm) in p.iter().enumerate() {
-        mean += pm * charges[mask] as f64;
-        for (i, f) in ionized.iter_mut().enumerate() {
-            if mask & (1 << i) != 0 {
-                *f += pm;
+
+    /// As [`distribution`], for the `sites` this table was made from.
+    pub(crate) fn distribution(
+        &self,
+        sites: &[Site],
+        fixed: i32,
+        ph: f64,
+        log10_gamma: &dyn Fn(i32) -> f64,
+    ) -> Distribution {
+        let n = sites.len();
+        if n > MAX_COUPLED_SITES {
+            return independent_distribution(sites, fixed, ph, log10_gamma);
+        }
+        let (terms, charges) = (&self.terms, &self.charges);
+        // γ is looked up once per charge level, not once per microstate (at most 21 levels).
+        let lowest = -(n as i32);
+        let mut gammas = [0.0; 2 * MAX_COUPLED_SITES + 1];
+        for (k, z) in (lowest..=n as i32).enumerate() {
+            gammas[k] = log10_gamma(fixed + z);
+        }
+        let logw: Vec<f64> = terms
+            .iter()
+            .zip(charges)
+            .map(|(t, &z)| t - z as f64 * ph - gammas[(z - lowest) as usize])
+            .collect();
+        let total = log10_sum(logw.iter().copied());
+        let mut ionized = vec![0.0; n];
+        let mut mean = 0.0;
+        let mut neutral = 0.0;
+        for (mask, w) in logw.iter().enumerate() {
+            let pm = 10f64.powf(w - total);
+            if mask == 0 {
+                neutral = pm;
+            }
+            mean += pm * charges[mask] as f64;
+            let mut bits = mask;
+            while bits != 0 {
+                ionized[bits.trailing_zeros() as usize] += pm;
+                bits &= bits - 1;
             }
         }
-    }
-    Distribution {
-        mean_site_charge: mean,
-        fraction_neutral: p[0],
-        fraction_ionized: ionized,
+        Distribution {
+            mean_site_charge: mean,
+            fraction_neutral: neutral,
+            fraction_ionized: ionized,
+        }
     }
 }
 

@@ -6,6 +6,7 @@ pub mod activity;
 pub mod auto;
 pub mod carbonate;
 pub mod dose;
+mod fixed_ph;
 pub mod microstates;
 pub mod polyprotic;
 pub mod reagent;

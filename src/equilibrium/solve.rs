@@ -13,6 +13,7 @@
 use super::AqueousLayer;
 use super::activity::Gammas;
 use super::carbonate::CarbonateSpecies;
+use super::microstates::Table;
 use super::species::{Protolyte, SoluteState};
 use super::water::{Activity, Conditions};
 use crate::error::{Error, Result};
@@ -71,7 +72,14 @@ struct Snapshot {
     carbonate: CarbonateSpecies,
 }
 
-fn snapshot(layer: &AqueousLayer, ph: f64, c: &Conditions, g: &Gammas) -> Snapshot {
+/// `tables` holds each solute's microstate table, made once per solve.
+fn snapshot(
+    layer: &AqueousLayer,
+    tables: &[Table],
+    ph: f64,
+    c: &Conditions,
+    g: &Gammas,
+) -> Snapshot {
     let lg = |z: i32| g.log10_gamma(z);
     let g1 = g.gamma(1);
     Snapshot {
@@ -81,7 +89,8 @@ fn snapshot(layer: &AqueousLayer, ph: f64, c: &Conditions, g: &Gammas) -> Snapsh
         solutes: layer
             .solutes
             .iter()
-            .map(|s| s.state_with(ph, &lg))
+            .zip(tables)
+            .map(|(s, t)| s.state_in(t, ph, &lg))
             .collect(),
         polyprotic: layer
             .polyprotics
@@ -118,38 +127,56 @@ fn residual(layer: &AqueousLayer, s: &Snapshot) -> f64 {
 /// monotone in pH: d ln f_neutral / dpH = ln 10 · (mean charge), so the share in water falls
 /// exactly where the charge per molecule is positive and falling, and rises where it is
 /// negative and falling; the product (aqueous charge) falls with pH either way.
-fn aqueous_mol(p: &Protolyte, st: &SoluteState, volume_l: f64) -> f64 {
+pub(super) fn aqueous_mol(p: &Protolyte, st: &SoluteState, volume_l: f64) -> f64 {
     p.total_mol * p.aqueous_share(st.fraction_neutral, volume_l)
 }
 
 /// Positive minus negative charge, mol/L, if the layer (constants already at the temperature
 /// of `conditions`) had pH `ph`, with ideal activities.
 pub fn charge_residual(layer: &AqueousLayer, ph: f64, conditions: &Conditions) -> f64 {
-    residual(layer, &snapshot(layer, ph, conditions, &Gammas::Ideal))
+    let tables = tables(layer);
+    residual(
+        layer,
+        &snapshot(layer, &tables, ph, conditions, &Gammas::Ideal),
+    )
 }
 
 /// Mean squared charge of a solute at `ph`: the variance of its charge is
 /// -(1/ln 10) d<z>/dpH at fixed activity coefficients (each proton moves the charge by one),
 /// taken by a central difference so that any solute model that gives `state_with` works.
-fn mean_square_charge(p: &Protolyte, ph: f64, mean: f64, lg: &dyn Fn(i32) -> f64) -> f64 {
+/// `table` is the solute's own microstate table.
+pub(super) fn mean_square_charge(
+    p: &Protolyte,
+    table: &Table,
+    ph: f64,
+    mean: f64,
+    lg: &dyn Fn(i32) -> f64,
+) -> f64 {
     const STEP: f64 = 1e-4;
-    let up = p.state_with(ph + STEP, lg).mean_charge;
-    let down = p.state_with(ph - STEP, lg).mean_charge;
+    let up = p.state_in(table, ph + STEP, lg).mean_charge;
+    let down = p.state_in(table, ph - STEP, lg).mean_charge;
     let variance = (-(up - down) / (2.0 * STEP) / std::f64::consts::LN_10).max(0.0);
     variance + mean * mean
 }
 
 /// Ionic strength, mol/L, of the layer at `ph` with activities `g`. Strong ions count as
 /// singly charged (Na+, K+, Cl-): the table's Mg2+/Ca2+/SO4-- are rare in a workup layer.
-fn ionic_strength(layer: &AqueousLayer, ph: f64, c: &Conditions, g: &Gammas) -> f64 {
-    let s = snapshot(layer, ph, c, g);
+fn ionic_strength(
+    layer: &AqueousLayer,
+    tables: &[Table],
+    ph: f64,
+    c: &Conditions,
+    g: &Gammas,
+) -> f64 {
+    let s = snapshot(layer, tables, ph, c, g);
     let lg = |z: i32| g.log10_gamma(z);
     let solutes: f64 = layer
         .solutes
         .iter()
         .zip(&s.solutes)
-        .map(|(p, st)| {
-            aqueous_mol(p, st, layer.volume_l) * mean_square_charge(p, ph, st.mean_charge, &lg)
+        .zip(tables)
+        .map(|((p, st), t)| {
+            aqueous_mol(p, st, layer.volume_l) * mean_square_charge(p, t, ph, st.mean_charge, &lg)
         })
         .sum();
     let systems: f64 = layer
@@ -177,8 +204,14 @@ const I_TOLERANCE: f64 = 1e-12;
 /// The pH that closes the charge balance at fixed activity coefficients. `guess` (the root of
 /// a nearby problem, as in the ionic-strength iteration) only narrows the first bracket; the
 /// answer is the same neighbouring doubles either way.
-fn bisect_ph(layer: &AqueousLayer, c: &Conditions, g: &Gammas, guess: Option<f64>) -> Result<f64> {
-    let f = |ph: f64| residual(layer, &snapshot(layer, ph, c, g));
+fn bisect_ph(
+    layer: &AqueousLayer,
+    tables: &[Table],
+    c: &Conditions,
+    g: &Gammas,
+    guess: Option<f64>,
+) -> Result<f64> {
+    let f = |ph: f64| residual(layer, &snapshot(layer, tables, ph, c, g));
     // The residual falls with pH: positive (or zero) at the low end, negative at the high end.
     let narrow = guess
         .filter(|p| (BRACKET.0..BRACKET.1).contains(p))
@@ -227,7 +260,11 @@ fn bisect_ph(layer: &AqueousLayer, c: &Conditions, g: &Gammas, guess: Option<f64
 }
 
 /// Davies activities with the ionic strength they imply at the pH they give.
-fn self_consistent(layer: &AqueousLayer, c: &Conditions) -> Result<(Gammas, Option<f64>)> {
+fn self_consistent(
+    layer: &AqueousLayer,
+    tables: &[Table],
+    c: &Conditions,
+) -> Result<(Gammas, Option<f64>)> {
     let a = c.davies_a();
     let davies = |i: f64| Gammas::Davies {
         a,
@@ -238,9 +275,9 @@ fn self_consistent(layer: &AqueousLayer, c: &Conditions) -> Result<(Gammas, Opti
     let last_ph = std::cell::Cell::new(None);
     let implied = |i: f64| -> Result<f64> {
         let g = davies(i);
-        let ph = bisect_ph(layer, c, &g, last_ph.get())?;
+        let ph = bisect_ph(layer, tables, c, &g, last_ph.get())?;
         last_ph.set(Some(ph));
-        Ok(ionic_strength(layer, ph, c, &g))
+        Ok(ionic_strength(layer, tables, ph, c, &g))
     };
     let close = |a: f64, b: f64| (a - b).abs() <= I_TOLERANCE * a.abs().max(b.abs()) + 1e-300;
     let mut i = implied(0.0)?;
@@ -274,24 +311,30 @@ fn self_consistent(layer: &AqueousLayer, c: &Conditions) -> Result<(Gammas, Opti
 pub fn solve_ph(layer: &AqueousLayer, conditions: &Conditions) -> Result<Equilibrium> {
     layer.validate()?;
     let layer = at_temperature(layer, conditions);
+    let tables = tables(&layer);
     let (gammas, guess) = match conditions.activity() {
         Activity::Ideal => (Gammas::Ideal, None),
-        Activity::Davies => self_consistent(&layer, conditions)?,
+        Activity::Davies => self_consistent(&layer, &tables, conditions)?,
     };
-    let ph = bisect_ph(&layer, conditions, &gammas, guess)?;
-    let s = snapshot(&layer, ph, conditions, &gammas);
+    let ph = bisect_ph(&layer, &tables, conditions, &gammas, guess)?;
+    let s = snapshot(&layer, &tables, ph, conditions, &gammas);
     Ok(Equilibrium {
         ph,
         volume_l: layer.volume_l,
         hydrogen_mol_l: s.h,
         hydroxide_mol_l: s.oh,
         charge_residual_mol_l: residual(&layer, &s),
-        ionic_strength: ionic_strength(&layer, ph, conditions, &gammas),
+        ionic_strength: ionic_strength(&layer, &tables, ph, conditions, &gammas),
         solutes: s.solutes,
         polyprotic_charges: s.polyprotic.iter().map(|m| m.0).collect(),
         carbonate: s.carbonate,
         gammas,
     })
+}
+
+/// Each solute's microstate table, in the layer's order.
+pub(super) fn tables(layer: &AqueousLayer) -> Vec<Table> {
+    layer.solutes.iter().map(Protolyte::table).collect()
 }
 
 fn no_balance() -> Error {

@@ -199,8 +199,23 @@ impl Protolyte {
     /// a microstate of charge z weighs 10^(its mass-action term) / γ_z, derived in
     /// `microstates.rs`.
     pub fn state_with(&self, ph: f64, log10_gamma: &dyn Fn(i32) -> f64) -> SoluteState {
+        self.state_in(&self.table(), ph, log10_gamma)
+    }
+
+    /// The pH-free part of the microstate weights, for [`Protolyte::state_in`].
+    pub(crate) fn table(&self) -> microstates::Table {
+        microstates::Table::new(&self.sites, &self.couplings)
+    }
+
+    /// As [`Protolyte::state_with`], with this protolyte's `table` made beforehand.
+    pub(crate) fn state_in(
+        &self,
+        table: &microstates::Table,
+        ph: f64,
+        log10_gamma: &dyn Fn(i32) -> f64,
+    ) -> SoluteState {
         let fixed = self.fixed_charge.round() as i32;
-        let d = microstates::distribution(&self.sites, &self.couplings, fixed, ph, log10_gamma);
+        let d = table.distribution(&self.sites, fixed, ph, log10_gamma);
         SoluteState {
             mean_charge: self.fixed_charge + d.mean_site_charge,
             fraction_neutral: d.fraction_neutral,
