@@ -37,6 +37,9 @@ pub struct Dose {
     pub reagent_mol_l: f64,
     /// The final layer's equilibrium.
     pub equilibrium: Equilibrium,
+    /// The pH this reagent and stock tend to (solution) or reach at the solubility limit
+    /// (solid) in the layer: the second value of [`reachable_range`], worked out on the way.
+    pub limit_ph: f64,
 }
 
 /// The layer after adding `mol` of `reagent` from `stock`.
@@ -161,7 +164,7 @@ pub fn dose(
         )));
     }
     if (target_ph - r.start).abs() <= SAME_PH {
-        return finish(layer, reagent, stock, 0.0, target_ph, conditions);
+        return finish(layer, reagent, stock, 0.0, &r, target_ph, conditions);
     }
     // Solved at the target pH first (one root in the amount); should that route find no
     // bracket, or its amount fail the re-solve check, the amount is found by solving the pH
@@ -177,12 +180,12 @@ pub fn dose(
         conditions,
     )?;
     if let Some(mol) = direct
-        && let Ok(done) = finish(layer, reagent, stock, mol, target_ph, conditions)
+        && let Ok(done) = finish(layer, reagent, stock, mol, &r, target_ph, conditions)
     {
         return Ok(done);
     }
     let mol = find_amount(layer, reagent, stock, &r, target_ph, conditions)?;
-    finish(layer, reagent, stock, mol, target_ph, conditions)
+    finish(layer, reagent, stock, mol, &r, target_ph, conditions)
 }
 
 /// Like `dose`, and when the target is out of reach, the message also names which reagents
@@ -304,6 +307,7 @@ fn finish(
     reagent: &Reagent,
     stock: &StockOffer,
     mol: f64,
+    r: &Reach,
     target: f64,
     conditions: &Conditions,
 ) -> Result<Dose> {
@@ -329,6 +333,7 @@ fn finish(
         ph: equilibrium.ph,
         reagent_mol_l: mol / final_layer.volume_l,
         equilibrium,
+        limit_ph: r.limit,
     })
 }
 

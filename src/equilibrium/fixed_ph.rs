@@ -58,18 +58,19 @@ impl<'a> AtTarget<'a> {
     ) -> AtTarget<'a> {
         let lg = |z: i32| gammas.log10_gamma(z);
         let g1 = gammas.gamma(1);
-        let solutes: Vec<SoluteState> = layer
+        let (solutes, squares): (Vec<SoluteState>, Vec<Option<f64>>) = layer
             .solutes
             .iter()
             .zip(tables)
-            .map(|(s, t)| s.state_in(t, ph, &lg))
-            .collect();
+            .map(|(s, t)| s.state_and_square_in(t, ph, &lg))
+            .unzip();
         let square_charges = layer
             .solutes
             .iter()
             .zip(&solutes)
             .zip(tables)
-            .map(|((p, st), t)| mean_square_charge(p, t, ph, st.mean_charge, &lg))
+            .zip(squares)
+            .map(|(((p, st), t), sq)| mean_square_charge(p, t, ph, (st.mean_charge, sq), &lg))
             .collect();
         let system = reagent
             .system
@@ -160,7 +161,8 @@ impl<'a> AtTarget<'a> {
     fn amount(&self, direction: f64, max_mol: Option<f64>) -> Result<Option<f64>> {
         let g = |mol: f64| -> Result<f64> { Ok(direction * self.residual(mol)) };
         let g_lo = g(0.0)?;
-        if !(g_lo < 0.0) {
+        // Already past the target (or NaN): no bracket from zero.
+        if g_lo >= 0.0 || g_lo.is_nan() {
             return Ok(None);
         }
         let bracket = match max_mol {
@@ -230,6 +232,7 @@ pub(super) fn amount_at_ph(
     let a = conditions.davies_a();
     let close = |a: f64, b: f64| (a - b).abs() <= I_TOLERANCE * a.abs().max(b.abs()) + 1e-300;
     let mut i = 0.0;
+    let mut last = None;
     for _ in 0..60 {
         let state = at(Gammas::Davies {
             a,
@@ -242,7 +245,8 @@ pub(super) fn amount_at_ph(
         if close(next, i) {
             return Ok(Some(mol));
         }
-        i = next;
+        let step = last.map_or(next, |l| super::root::secant_fixed_point(l, (i, next)));
+        (i, last) = (step, Some((i, next)));
     }
     Ok(None)
 }

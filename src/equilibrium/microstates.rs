@@ -115,7 +115,9 @@ pub fn distribution(
     ph: f64,
     log10_gamma: &dyn Fn(i32) -> f64,
 ) -> Distribution {
-    Table::new(sites, couplings).distribution(sites, fixed, ph, log10_gamma)
+    Table::new(sites, couplings)
+        .distribution(sites, fixed, ph, log10_gamma)
+        .0
 }
 
 /// The pH-free part of one molecule's microstate weights, worked out once and used at many
@@ -139,17 +141,21 @@ impl Table {
         Table { terms, charges }
     }
 
-    /// As [`distribution`], for the `sites` this table was made from.
+    /// As [`distribution`], for the `sites` this table was made from, with the mean squared
+    /// site charge when the forms were enumerated (for the ionic strength).
     pub(crate) fn distribution(
         &self,
         sites: &[Site],
         fixed: i32,
         ph: f64,
         log10_gamma: &dyn Fn(i32) -> f64,
-    ) -> Distribution {
+    ) -> (Distribution, Option<f64>) {
         let n = sites.len();
         if n > MAX_COUPLED_SITES {
-            return independent_distribution(sites, fixed, ph, log10_gamma);
+            return (
+                independent_distribution(sites, fixed, ph, log10_gamma),
+                None,
+            );
         }
         let (terms, charges) = (&self.terms, &self.charges);
         // γ is looked up once per charge level, not once per microstate (at most 21 levels).
@@ -166,24 +172,28 @@ impl Table {
         let total = log10_sum(logw.iter().copied());
         let mut ionized = vec![0.0; n];
         let mut mean = 0.0;
+        let mut square = 0.0;
         let mut neutral = 0.0;
         for (mask, w) in logw.iter().enumerate() {
             let pm = 10f64.powf(w - total);
             if mask == 0 {
                 neutral = pm;
             }
-            mean += pm * charges[mask] as f64;
+            let z = charges[mask] as f64;
+            mean += pm * z;
+            square += pm * z * z;
             let mut bits = mask;
             while bits != 0 {
                 ionized[bits.trailing_zeros() as usize] += pm;
                 bits &= bits - 1;
             }
         }
-        Distribution {
+        let d = Distribution {
             mean_site_charge: mean,
             fraction_neutral: neutral,
             fraction_ionized: ionized,
-        }
+        };
+        (d, Some(square))
     }
 }
 

@@ -64,6 +64,16 @@ pub(crate) fn shrink(
     Ok((lo, hi))
 }
 
+/// The next guess for a fixed point x = f(x) from two points `(x, f(x))`: the secant root of
+/// f(x) - x through them (a few steps where plain iteration, x <- f(x), takes a dozen), or
+/// plain iteration when the secant is flat, not finite or negative (an ionic strength is
+/// never negative).
+pub(crate) fn secant_fixed_point((x0, f0): (f64, f64), (x1, f1): (f64, f64)) -> f64 {
+    let (g0, g1) = (f0 - x0, f1 - x1);
+    let x = x1 - g1 * (x1 - x0) / (g1 - g0);
+    if x.is_finite() && x >= 0.0 { x } else { f1 }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

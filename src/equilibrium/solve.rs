@@ -68,6 +68,8 @@ struct Snapshot {
     h: f64,
     oh: f64,
     solutes: Vec<SoluteState>,
+    /// Each solute's mean squared charge, where its forms were enumerated.
+    squares: Vec<Option<f64>>,
     polyprotic: Vec<(f64, f64)>,
     carbonate: CarbonateSpecies,
 }
@@ -82,16 +84,18 @@ fn snapshot(
 ) -> Snapshot {
     let lg = |z: i32| g.log10_gamma(z);
     let g1 = g.gamma(1);
+    let (solutes, squares) = layer
+        .solutes
+        .iter()
+        .zip(tables)
+        .map(|(s, t)| s.state_and_square_in(t, ph, &lg))
+        .unzip();
     Snapshot {
         // a(H+) = 10^-pH and a(OH-) = Kw / a(H+), both over γ of a monovalent ion.
         h: 10f64.powf(-ph) / g1,
         oh: 10f64.powf(ph - c.pkw()) / g1,
-        solutes: layer
-            .solutes
-            .iter()
-            .zip(tables)
-            .map(|(s, t)| s.state_in(t, ph, &lg))
-            .collect(),
+        solutes,
+        squares,
         polyprotic: layer
             .polyprotics
             .iter()
@@ -143,15 +147,18 @@ pub fn charge_residual(layer: &AqueousLayer, ph: f64, conditions: &Conditions) -
 
 /// Mean squared charge of a solute at `ph`: the variance of its charge is
 /// -(1/ln 10) d<z>/dpH at fixed activity coefficients (each proton moves the charge by one),
-/// taken by a central difference so that any solute model that gives `state_with` works.
-/// `table` is the solute's own microstate table.
+/// taken by a central difference where the forms were not enumerated (`square` is `None`;
+/// otherwise it is the enumerated mean square itself). `table` is the solute's own table.
 pub(super) fn mean_square_charge(
     p: &Protolyte,
     table: &Table,
     ph: f64,
-    mean: f64,
+    (mean, square): (f64, Option<f64>),
     lg: &dyn Fn(i32) -> f64,
 ) -> f64 {
+    if let Some(square) = square {
+        return square;
+    }
     const STEP: f64 = 1e-4;
     let up = p.state_in(table, ph + STEP, lg).mean_charge;
     let down = p.state_in(table, ph - STEP, lg).mean_charge;
@@ -175,8 +182,10 @@ fn ionic_strength(
         .iter()
         .zip(&s.solutes)
         .zip(tables)
-        .map(|((p, st), t)| {
-            aqueous_mol(p, st, layer.volume_l) * mean_square_charge(p, t, ph, st.mean_charge, &lg)
+        .zip(&s.squares)
+        .map(|(((p, st), t), &sq)| {
+            aqueous_mol(p, st, layer.volume_l)
+                * mean_square_charge(p, t, ph, (st.mean_charge, sq), &lg)
         })
         .sum();
     let systems: f64 = layer
@@ -281,12 +290,13 @@ fn self_consistent(
     };
     let close = |a: f64, b: f64| (a - b).abs() <= I_TOLERANCE * a.abs().max(b.abs()) + 1e-300;
     let mut i = implied(0.0)?;
+    let mut last = (0.0, i);
     for _ in 0..60 {
         let next = implied(i)?;
         if close(next, i) {
             return Ok((davies(next), last_ph.get()));
         }
-        i = next;
+        (i, last) = (super::root::secant_fixed_point(last, (i, next)), (i, next));
     }
     // Fallback: bisect g(I) = implied(I) - I. g(0) >= 0; the coefficients stop changing past
     // the Davies limit, so implied(I) is constant there and g < 0 beyond that constant.

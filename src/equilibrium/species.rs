@@ -214,13 +214,27 @@ impl Protolyte {
         ph: f64,
         log10_gamma: &dyn Fn(i32) -> f64,
     ) -> SoluteState {
+        self.state_and_square_in(table, ph, log10_gamma).0
+    }
+
+    /// The state and, where the forms were enumerated, the mean squared charge per molecule
+    /// (fixed charge included): E[(q + z)²] = q² + 2q E[z] + E[z²].
+    pub(crate) fn state_and_square_in(
+        &self,
+        table: &microstates::Table,
+        ph: f64,
+        log10_gamma: &dyn Fn(i32) -> f64,
+    ) -> (SoluteState, Option<f64>) {
         let fixed = self.fixed_charge.round() as i32;
-        let d = table.distribution(&self.sites, fixed, ph, log10_gamma);
-        SoluteState {
+        let (d, square) = table.distribution(&self.sites, fixed, ph, log10_gamma);
+        let q = self.fixed_charge;
+        let square = square.map(|s| q * q + 2.0 * q * d.mean_site_charge + s);
+        let state = SoluteState {
             mean_charge: self.fixed_charge + d.mean_site_charge,
             fraction_neutral: d.fraction_neutral,
             fraction_ionized: d.fraction_ionized,
-        }
+        };
+        (state, square)
     }
 
     /// Macroscopic pKa values, in the order the protons come off.

@@ -211,14 +211,12 @@ pub fn adjust(
                 &request.conditions,
                 catalogue,
             )?;
-            let (_, limit) =
-                equilibrium::reachable_range(&layer, &reagent, &offer, &request.conditions)?;
             let context = Context {
                 prepared: &prepared,
                 reagent: &reagent,
                 conditions: &request.conditions,
                 start_ph: start.ph,
-                limit_ph: limit,
+                limit_ph: dose.limit_ph,
                 total_solute_mol,
                 why,
                 solvent: None,
