@@ -164,18 +164,24 @@ impl Table {
         for (k, z) in (lowest..=n as i32).enumerate() {
             gammas[k] = log10_gamma(fixed + z);
         }
-        let logw: Vec<f64> = terms
+        let mut weights: Vec<f64> = terms
             .iter()
             .zip(charges)
             .map(|(t, &z)| t - z as f64 * ph - gammas[(z - lowest) as usize])
             .collect();
-        let total = log10_sum(logw.iter().copied());
+        // Scaled by the largest weight so no pH overflows; each power is taken once.
+        let max = weights.iter().copied().fold(f64::NEG_INFINITY, f64::max);
+        let mut sum = 0.0;
+        for w in weights.iter_mut() {
+            *w = 10f64.powf(*w - max);
+            sum += *w;
+        }
         let mut ionized = vec![0.0; n];
         let mut mean = 0.0;
         let mut square = 0.0;
         let mut neutral = 0.0;
-        for (mask, w) in logw.iter().enumerate() {
-            let pm = 10f64.powf(w - total);
+        for (mask, w) in weights.iter().enumerate() {
+            let pm = w / sum;
             if mask == 0 {
                 neutral = pm;
             }
