@@ -96,6 +96,17 @@ impl CarbonateSpecies {
         conditions: &Conditions,
         lg: &dyn Fn(i32) -> f64,
     ) -> CarbonateSpecies {
+        if total_mol == 0.0 && conditions.co2_mode() != Co2Mode::Air {
+            // No carbon and none taken from air: nothing to split (the solver asks this at
+            // every trial pH of a layer without carbonate).
+            return CarbonateSpecies {
+                co2_mol: 0.0,
+                bicarbonate_mol: 0.0,
+                carbonate_mol: 0.0,
+                released_mol: 0.0,
+                absorbed_mol: 0.0,
+            };
+        }
         let (a0, a1, a2) = fractions_with(ph, conditions, lg);
         // Saturation concentration of CO2(aq) (neutral: γ = 1), and the total carbon that
         // would sit with it at this pH, as log10 to stay finite at any pH.

@@ -250,3 +250,59 @@ pub(super) fn amount_at_ph(
     }
     Ok(None)
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::equilibrium::carbonate::Co2Mode;
+    use crate::equilibrium::dose::with_reagent;
+    use crate::equilibrium::reagent::StockForm;
+    use crate::equilibrium::solve::solve_ph;
+    use crate::equilibrium::species::{Protolyte, Site};
+
+    /// The amount found at the target pH, checked by the forward route (an independent
+    /// calculation): solving the pH of the layer with that amount gives the target back.
+    fn check(layer: &AqueousLayer, name: &str, form: StockForm, target: f64, c: &Conditions) {
+        let all = Reagent::builtin().unwrap();
+        let reagent = Reagent::find(&all, name).unwrap();
+        let offer = reagent.offer(&form).unwrap();
+        let start = solve_ph(layer, c).unwrap().ph;
+        let direction = if target > start { 1.0 } else { -1.0 };
+        let max = match offer.stock {
+            Stock::Solid => Some(reagent.solubility_mol_l().unwrap() * layer.volume_l),
+            _ => None,
+        };
+        let mol = amount_at_ph(layer, reagent, &offer.stock, target, direction, max, c)
+            .unwrap()
+            .expect("a bracket at the target");
+        let ph = solve_ph(&with_reagent(layer, reagent, &offer.stock, mol), c)
+            .unwrap()
+            .ph;
+        assert!((ph - target).abs() < 1e-9, "{name}: pH {ph} vs {target}");
+    }
+
+    #[test]
+    fn forward_solve_returns_the_target() {
+        let davies = Conditions::standard().with_activity(Activity::Davies);
+        // An amine and an acid shared with an organic layer, vented CO2, Davies activities.
+        let layer = AqueousLayer {
+            solutes: vec![
+                Protolyte::new(2e-3, vec![Site::base(10.7)], 0.0).with_organic(300.0, 0.03),
+                Protolyte::new(1e-3, vec![Site::acid(4.2)], 0.0).with_organic(50.0, 0.03),
+            ],
+            strong_anions_mol: 1e-3,
+            ..AqueousLayer::water(0.05)
+        };
+        let vented = davies.clone().with_co2(Co2Mode::Vented);
+        check(&layer, "naoh", StockForm::Molar(1.0), 11.0, &davies);
+        check(&layer, "hcl", StockForm::Molar(1.0), 2.5, &davies);
+        check(&layer, "nahco3", StockForm::Saturated, 7.5, &vented);
+        check(
+            &layer,
+            "naoh",
+            StockForm::Solid,
+            9.0,
+            &Conditions::standard(),
+        );
+    }
+}
