@@ -26,29 +26,36 @@ pub(crate) struct Context<'a, 'm> {
     main: &'a QueryGraph,
     recursive: &'a [QueryGraph],
     /// Per graph (recursive ones first, main last): atom-test memo, pattern atom × molecule atom.
+    /// Empty until the graph's first atom test: most patterns of a table are rejected by the
+    /// element screen and never pay for one.
     memo: Vec<Vec<u8>>,
-    /// Per recursive graph: does it match anchored at each molecule atom.
+    /// Per recursive graph: does it match anchored at each molecule atom (empty until asked).
     anchored: Vec<Vec<u8>>,
+    /// Search buffers handed back by finished searches, so that the anchored searches of a
+    /// recursive `$(...)` (one per molecule atom) reuse them instead of allocating.
+    spare: Vec<State>,
     /// Placements tried so far, against `STEP_BUDGET`.
     steps: usize,
 }
 
 impl<'a, 'm> Context<'a, 'm> {
     pub fn new(target: &'a Target<'m>, main: &'a QueryGraph, recursive: &'a [QueryGraph]) -> Self {
-        let n = target.atom_count();
-        let memo = recursive
-            .iter()
-            .chain(std::iter::once(main))
-            .map(|g| vec![UNKNOWN; g.atoms.len() * n])
-            .collect();
         Context {
             target,
             main,
             recursive,
-            memo,
-            anchored: vec![vec![UNKNOWN; n]; recursive.len()],
+            memo: vec![Vec::new(); recursive.len() + 1],
+            anchored: vec![Vec::new(); recursive.len()],
+            spare: Vec::new(),
             steps: 0,
         }
+    }
+
+    /// Whether `graph` cannot embed in `target` at all: more atoms than the molecule, or an
+    /// atom whose allowed elements occur nowhere in it.
+    pub fn screened_out(target: &Target, graph: &QueryGraph) -> bool {
+        graph.atoms.len() > target.atom_count()
+            || graph.elements.iter().any(|&e| e & target.elements == 0)
     }
 
     /// Index of the main graph in `memo`.
@@ -73,24 +80,23 @@ impl<'a, 'm> Context<'a, 'm> {
         report: &mut dyn FnMut(&[usize]) -> bool,
     ) {
         let graph = self.graph(id);
-        if graph.atoms.len() > self.target.atom_count() {
+        if Self::screened_out(self.target, graph) {
             return;
         }
-        // An atom whose element occurs nowhere in the molecule: no embedding at all.
-        if graph
-            .elements
-            .iter()
-            .any(|&e| e & self.target.elements == 0)
-        {
-            return;
-        }
-        let mut state = State {
+        let mut state = self.spare.pop().unwrap_or_else(|| State {
             id,
             anchor,
-            map: vec![usize::MAX; graph.atoms.len()],
-            used: vec![false; self.target.atom_count()],
-        };
+            map: Vec::new(),
+            used: Vec::new(),
+        });
+        state.id = id;
+        state.anchor = anchor;
+        state.map.clear();
+        state.map.resize(graph.atoms.len(), usize::MAX);
+        state.used.clear();
+        state.used.resize(self.target.atom_count(), false);
         self.extend(&mut state, 0, report);
+        self.spare.push(state);
     }
 
     /// Places pattern atom `k`; returns `true` when the caller asked to stop.
@@ -190,7 +196,11 @@ impl<'a, 'm> Context<'a, 'm> {
 
     /// Whether pattern atom `k` of graph `id` accepts molecule atom `m` (memoised).
     fn atom_ok(&mut self, id: usize, k: usize, m: usize) -> bool {
-        let slot = k * self.target.atom_count() + m;
+        let n = self.target.atom_count();
+        let slot = k * n + m;
+        if self.memo[id].is_empty() {
+            self.memo[id] = vec![UNKNOWN; self.graph(id).atoms.len() * n];
+        }
         match self.memo[id][slot] {
             YES => return true,
             NO => return false,
@@ -244,6 +254,9 @@ impl<'a, 'm> Context<'a, 'm> {
 
     /// Whether recursive pattern `r` matches with its first atom on `m` (memoised).
     fn recursive_match(&mut self, r: usize, m: usize) -> bool {
+        if self.anchored[r].is_empty() {
+            self.anchored[r] = vec![UNKNOWN; self.target.atom_count()];
+        }
         match self.anchored[r][m] {
             YES => return true,
             NO => return false,
