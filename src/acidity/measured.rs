@@ -9,7 +9,7 @@
 //! lost and the first proton gained are the measured ones; a site left over keeps its estimate
 //! and a value left over is kept in a note.
 
-use std::collections::HashMap;
+use std::collections::{HashMap, HashSet};
 
 use serde::Serialize;
 
@@ -17,6 +17,7 @@ use super::group::Kind;
 use super::sites::Site;
 use crate::chem::canon::fragment_key;
 use crate::chem::components::Compound;
+use crate::chem::molecule::Molecule;
 use crate::error::Result;
 use crate::store::Store;
 
@@ -43,10 +44,34 @@ pub struct Stored {
 }
 
 /// Stored constants by canonical key: the user's and the built-in ones.
+///
+/// A table read by `from_store` also holds the heavy-atom formulas of its keys, so that a
+/// parent whose formula no stored structure has is passed over without computing its key (the
+/// key is the costliest step of a batch row). A table built or edited by hand is not screened
+/// until `screen_keys` is called: every parent's key is computed.
 #[derive(Debug, Clone, Default)]
 pub struct MeasuredTable {
     pub user: HashMap<String, Vec<Stored>>,
     pub builtin: HashMap<String, Vec<Stored>>,
+    /// Formulas of every key of `user` and `builtin`, with the number of keys they were taken
+    /// from; `None` when not built or when some key could not be read back.
+    screen: Option<(HashSet<Formula>, usize)>,
+}
+
+/// Heavy-atom formula, (atomic number, count) ascending. Hydrogens are left out: a key may
+/// carry them as counts or as atoms. Equal keys have equal formulas, since a key writes every
+/// heavy atom of its structure once.
+type Formula = Vec<(u8, u32)>;
+
+fn formula(elements: impl Iterator<Item = u8>) -> Formula {
+    let mut counts: Formula = Vec::new();
+    for e in elements.filter(|&e| e != 1) {
+        match counts.binary_search_by_key(&e, |&(el, _)| el) {
+            Ok(i) => counts[i].1 += 1,
+            Err(i) => counts.insert(i, (e, 1)),
+        }
+    }
+    counts
 }
 
 /// What applying the table did to one input.
@@ -81,7 +106,32 @@ impl MeasuredTable {
                 source: format!("measured: {}, {} °C", r.source, r.temperature),
             });
         }
+        table.screen_keys();
         Ok(table)
+    }
+
+    /// Records the formula of every stored key (see the type doc); call again after editing
+    /// `user` or `builtin`. A key that does not read back as SMILES turns the screen off.
+    pub fn screen_keys(&mut self) {
+        let keys = self.user.keys().chain(self.builtin.keys());
+        let formulas: Option<HashSet<Formula>> = keys
+            .map(|k| {
+                let mol = Molecule::from_smiles(k).ok()?;
+                Some(formula(mol.atoms.iter().map(|a| a.element)))
+            })
+            .collect();
+        self.screen = formulas.map(|f| (f, self.user.len() + self.builtin.len()));
+    }
+
+    /// Whether some stored key may be that of the atoms `atoms` of `mol` (false: none is).
+    fn may_hold(&self, mol: &Molecule, atoms: &[usize]) -> bool {
+        match &self.screen {
+            // A count that moved means the maps were edited after screening: trust nothing.
+            Some((formulas, n)) if *n == self.user.len() + self.builtin.len() => {
+                formulas.contains(&formula(atoms.iter().map(|&a| mol.atoms[a].element)))
+            }
+            _ => true,
+        }
     }
 
     /// The constants that apply to a structure key: the user's, else the built-in ones.
@@ -99,6 +149,10 @@ impl MeasuredTable {
         let mut origins = Vec::new();
         let mut notes = Vec::new();
         for parent in &compound.parents {
+            if !self.may_hold(&compound.neutral, &parent.atoms) {
+                origins.push(Origin::Estimate);
+                continue;
+            }
             let key = fragment_key(&compound.neutral, &parent.atoms);
             let Some((origin, stored)) = self.lookup(&key) else {
                 origins.push(Origin::Estimate);
@@ -234,6 +288,32 @@ mod tests {
     /// Glycine, spelled as its hydrochloride: the sites sit on the written atom indices.
     fn glycine() -> Compound {
         split(&Molecule::from_smiles("[NH3+]CC(=O)O.[Cl-]").unwrap()).unwrap()
+    }
+
+    #[test]
+    fn the_formula_screen_passes_stored_structures_only() {
+        let mut table = MeasuredTable::default();
+        // Glycine 2.34 and 9.60: CRC Handbook amino acid table (from memory).
+        table.builtin.insert(
+            key("NCC(=O)O").unwrap(),
+            vec![stored(Kind::Acid, 2.34, "handbook")],
+        );
+        table.screen_keys();
+        let gly = glycine();
+        assert!(table.may_hold(&gly.neutral, &gly.parents[0].atoms));
+        let mut sites = vec![site(0, Kind::Base, 9.0), site(4, Kind::Acid, 3.5)];
+        assert_eq!(table.apply(&gly, &mut sites).origin, Origin::Measured);
+        // Alanine has one more carbon: passed over without a key.
+        let ala = split(&Molecule::from_smiles("CC(N)C(=O)O").unwrap()).unwrap();
+        assert!(!table.may_hold(&ala.neutral, &ala.parents[0].atoms));
+        // Explicit hydrogen atoms do not count.
+        let gly_h = split(&Molecule::from_smiles("[H]OC(=O)CN").unwrap()).unwrap();
+        assert!(table.may_hold(&gly_h.neutral, &gly_h.parents[0].atoms));
+        // A table edited after screening is no longer screened.
+        table
+            .user
+            .insert("C".into(), vec![stored(Kind::Acid, 50.0, "mine")]);
+        assert!(table.may_hold(&ala.neutral, &ala.parents[0].atoms));
     }
 
     #[test]
