@@ -6,6 +6,8 @@
 //! of their tuples. Atom tests are memoised per (pattern atom, molecule atom) and recursive
 //! `$(...)` results per (sub-pattern, molecule atom), for the whole call.
 
+use std::cell::RefCell;
+
 use super::query::{AtomPrim, BondExpr, BondPrim, QueryGraph};
 use super::target::Target;
 use crate::chem::molecule::Order;
@@ -19,6 +21,20 @@ const STEP_BUDGET: usize = 2_000_000;
 const UNKNOWN: u8 = 0;
 const YES: u8 = 1;
 const NO: u8 = 2;
+
+/// The buffers of a finished matching call, kept per thread for the next one: a table of a
+/// hundred patterns run on every row of a batch would otherwise allocate and free them (memo
+/// tables, search states) for each pattern that passes the element screen.
+#[derive(Default)]
+struct Scratch {
+    memo: Vec<Vec<u8>>,
+    anchored: Vec<Vec<u8>>,
+    spare: Vec<State>,
+}
+
+thread_local! {
+    static SCRATCH: RefCell<Scratch> = RefCell::new(Scratch::default());
+}
 
 /// Everything one matching call shares across its main and recursive searches.
 pub(crate) struct Context<'a, 'm> {
@@ -40,13 +56,29 @@ pub(crate) struct Context<'a, 'm> {
 
 impl<'a, 'm> Context<'a, 'm> {
     pub fn new(target: &'a Target<'m>, main: &'a QueryGraph, recursive: &'a [QueryGraph]) -> Self {
+        // A context made while another one of this thread holds the buffers starts empty.
+        let mut scratch = SCRATCH
+            .try_with(|s| s.try_borrow_mut().map(|mut s| std::mem::take(&mut *s)))
+            .ok()
+            .and_then(Result::ok)
+            .unwrap_or_default();
+        // An empty memo table means "not started" (filled on the graph's first atom test).
+        for table in [&mut scratch.memo, &mut scratch.anchored] {
+            table.iter_mut().for_each(Vec::clear);
+        }
+        if scratch.memo.len() < recursive.len() + 1 {
+            scratch.memo.resize_with(recursive.len() + 1, Vec::new);
+        }
+        if scratch.anchored.len() < recursive.len() {
+            scratch.anchored.resize_with(recursive.len(), Vec::new);
+        }
         Context {
             target,
             main,
             recursive,
-            memo: vec![Vec::new(); recursive.len() + 1],
-            anchored: vec![Vec::new(); recursive.len()],
-            spare: Vec::new(),
+            memo: scratch.memo,
+            anchored: scratch.anchored,
+            spare: scratch.spare,
             steps: 0,
         }
     }
@@ -199,7 +231,8 @@ impl<'a, 'm> Context<'a, 'm> {
         let n = self.target.atom_count();
         let slot = k * n + m;
         if self.memo[id].is_empty() {
-            self.memo[id] = vec![UNKNOWN; self.graph(id).atoms.len() * n];
+            let len = self.graph(id).atoms.len() * n;
+            self.memo[id].resize(len, UNKNOWN);
         }
         match self.memo[id][slot] {
             YES => return true,
@@ -255,7 +288,7 @@ impl<'a, 'm> Context<'a, 'm> {
     /// Whether recursive pattern `r` matches with its first atom on `m` (memoised).
     fn recursive_match(&mut self, r: usize, m: usize) -> bool {
         if self.anchored[r].is_empty() {
-            self.anchored[r] = vec![UNKNOWN; self.target.atom_count()];
+            self.anchored[r].resize(self.target.atom_count(), UNKNOWN);
         }
         match self.anchored[r][m] {
             YES => return true,
@@ -269,6 +302,22 @@ impl<'a, 'm> Context<'a, 'm> {
         });
         self.anchored[r][m] = if found { YES } else { NO };
         found
+    }
+}
+
+impl Drop for Context<'_, '_> {
+    fn drop(&mut self) {
+        let scratch = Scratch {
+            memo: std::mem::take(&mut self.memo),
+            anchored: std::mem::take(&mut self.anchored),
+            spare: std::mem::take(&mut self.spare),
+        };
+        // Nothing to keep them in while the thread is ending or another context holds them.
+        let _ = SCRATCH.try_with(|s| {
+            if let Ok(mut s) = s.try_borrow_mut() {
+                *s = scratch;
+            }
+        });
     }
 }
 
