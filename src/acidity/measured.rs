@@ -125,6 +125,10 @@ impl MeasuredTable {
 
     /// Whether some stored key may be that of the atoms `atoms` of `mol` (false: none is).
     fn may_hold(&self, mol: &Molecule, atoms: &[usize]) -> bool {
+        if self.user.is_empty() && self.builtin.is_empty() {
+            // `--estimate-only` runs with an empty table.
+            return false;
+        }
         match &self.screen {
             // A count that moved means the maps were edited after screening: trust nothing.
             Some((formulas, n)) if *n == self.user.len() + self.builtin.len() => {
@@ -298,8 +302,9 @@ mod tests {
             key("NCC(=O)O").unwrap(),
             vec![stored(Kind::Acid, 2.34, "handbook")],
         );
-        table.screen_keys();
         let gly = glycine();
+        assert!(!MeasuredTable::default().may_hold(&gly.neutral, &gly.parents[0].atoms));
+        table.screen_keys();
         assert!(table.may_hold(&gly.neutral, &gly.parents[0].atoms));
         let mut sites = vec![site(0, Kind::Base, 9.0), site(4, Kind::Acid, 3.5)];
         assert_eq!(table.apply(&gly, &mut sites).origin, Origin::Measured);
