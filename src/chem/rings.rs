@@ -131,14 +131,17 @@ fn candidates_over(mol: &Molecule, kept: &[bool], roots: &[usize]) -> Vec<Candid
     // Marks of the atoms on the path from x to the root, by round (no clearing between bonds).
     let mut on_px = vec![usize::MAX; mol.atoms.len()];
     let mut round = 0;
+    // Buffers reused over roots and bonds (this loop runs for every ring atom of every row).
+    let (mut parent, mut queue) = (Vec::new(), VecDeque::new());
+    let (mut px, mut py) = (Vec::new(), Vec::new());
     for &v in roots {
-        let parent = shortest_path_tree(mol, v, kept);
+        shortest_path_tree(mol, v, kept, &mut parent, &mut queue);
         for &(i, x, y) in &bonds {
             if parent[x].is_none() || parent[y].is_none() {
                 continue;
             }
-            let px = path_to_root(&parent, x);
-            let py = path_to_root(&parent, y);
+            path_to_root(&parent, x, &mut px);
+            path_to_root(&parent, y, &mut py);
             // The two paths may meet only at v, and the bond must not be a tree edge.
             round += 1;
             for &a in &px {
@@ -163,12 +166,20 @@ fn candidates_over(mol: &Molecule, kept: &[bool], roots: &[usize]) -> Vec<Candid
     out
 }
 
-/// Breadth-first tree from `root` over the `kept` atoms: `parent[a] = Some(p)` (the root is
-/// its own parent); atoms not reached stay `None`.
-fn shortest_path_tree(mol: &Molecule, root: usize, kept: &[bool]) -> Vec<Option<usize>> {
-    let mut parent = vec![None; mol.atoms.len()];
+/// Breadth-first tree from `root` over the `kept` atoms, into `parent`: `parent[a] = Some(p)`
+/// (the root is its own parent); atoms not reached stay `None`.
+fn shortest_path_tree(
+    mol: &Molecule,
+    root: usize,
+    kept: &[bool],
+    parent: &mut Vec<Option<usize>>,
+    queue: &mut VecDeque<usize>,
+) {
+    parent.clear();
+    parent.resize(mol.atoms.len(), None);
     parent[root] = Some(root);
-    let mut queue = VecDeque::from([root]);
+    queue.clear();
+    queue.push_back(root);
     while let Some(a) = queue.pop_front() {
         for &(nb, _) in &mol.adjacency[a] {
             if kept[nb] && parent[nb].is_none() {
@@ -177,12 +188,12 @@ fn shortest_path_tree(mol: &Molecule, root: usize, kept: &[bool]) -> Vec<Option<
             }
         }
     }
-    parent
 }
 
-/// Atoms from `a` up to and including the root.
-fn path_to_root(parent: &[Option<usize>], mut a: usize) -> Vec<usize> {
-    let mut path = vec![a];
+/// Atoms from `a` up to and including the root, into `path`.
+fn path_to_root(parent: &[Option<usize>], mut a: usize, path: &mut Vec<usize>) {
+    path.clear();
+    path.push(a);
     while let Some(p) = parent[a] {
         if p == a {
             break;
@@ -190,7 +201,6 @@ fn path_to_root(parent: &[Option<usize>], mut a: usize) -> Vec<usize> {
         path.push(p);
         a = p;
     }
-    path
 }
 
 /// Bond indices around a cycle given in atom order.

@@ -9,7 +9,7 @@
 
 use std::fs::File;
 use std::io::{self, BufRead, BufReader, IsTerminal, Read, Write};
-use std::path::Path;
+use std::path::{Path, PathBuf};
 use std::sync::Arc;
 use std::sync::atomic::{AtomicU64, Ordering};
 
@@ -402,6 +402,65 @@ pub struct Options {
     pub jobs: Option<usize>,
     /// Show a progress bar on standard error (only when it is a terminal).
     pub progress: bool,
+}
+
+/// The structures a batch-capable command reads: typed on the command line, from a file, or
+/// both (`info` and `pka`).
+#[derive(Debug, clap::Args)]
+pub struct Structures {
+    /// Structures as SMILES.
+    pub smiles: Vec<String>,
+    /// Read structures from a file: CSV with a `smiles` column, JSON lines with a `smiles` key,
+    /// or one SMILES per line (`-` = stdin). Bad rows do not stop the run: their `error` is set.
+    #[arg(long, value_name = "FILE")]
+    pub input: Option<PathBuf>,
+    /// Worker threads for `--input` (default: all cores).
+    #[arg(long, value_name = "N", value_parser = clap::value_parser!(u16).range(1..))]
+    pub jobs: Option<u16>,
+}
+
+impl Structures {
+    /// Refuses a run with nothing to read.
+    pub fn require_some(&self) -> Result<()> {
+        if self.smiles.is_empty() && self.input.is_none() {
+            return Err(Error::Input(
+                "give at least one SMILES, or --input FILE".into(),
+            ));
+        }
+        Ok(())
+    }
+
+    /// With `--input`, streams every structure through `work` to standard output in `format`
+    /// (`rows` and `trailer` give the table/CSV form of each chunk) and returns `true`;
+    /// without it returns `false` and leaves the run to the caller.
+    pub fn stream<T, R, F, G, H>(
+        &self,
+        format: Format,
+        work: F,
+        rows: G,
+        trailer: H,
+    ) -> Result<bool>
+    where
+        T: Serialize + Send,
+        R: Tabled + Serialize,
+        F: Fn(&Entry) -> T + Sync,
+        G: Fn(&[T]) -> Vec<R>,
+        H: Fn(&[T]) -> String,
+    {
+        let Some(path) = &self.input else {
+            return Ok(false);
+        };
+        let opts = Options {
+            jobs: self.jobs.map(usize::from),
+            progress: true,
+        };
+        let mut sink = Sink::new(format, io::BufWriter::new(io::stdout()));
+        run(&self.smiles, path, &opts, work, |chunk: &[T]| {
+            sink.write(chunk, || rows(chunk), || trailer(chunk))
+        })?;
+        quiet_on_closed_pipe(sink.finish())?;
+        Ok(true)
+    }
 }
 
 /// Works `work` over every entry of `leading` (structures typed on the command line) and then

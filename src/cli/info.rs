@@ -1,8 +1,6 @@
 //! `phdose info`: formula in Hill order, molar mass, net charge, components and the octanol/water
 //! logP of the neutral parent (handbook value or Wildman–Crippen estimate, said in `logp_source`).
 
-use std::path::PathBuf;
-
 use serde::Serialize;
 use tabled::Tabled;
 
@@ -11,23 +9,17 @@ use super::{Cli, Format};
 use crate::chem::components::split;
 use crate::chem::formula::{formula, hill_formula_of, molar_mass};
 use crate::chem::molecule::Molecule;
-use crate::error::{Error, Result};
+use crate::error::Result;
 use crate::partition::measured::octanol_log_p;
 use crate::report;
 
 #[derive(Debug, clap::Args)]
 pub struct Args {
-    /// Structures as SMILES.
-    pub smiles: Vec<String>,
-    /// Read structures from a file (CSV with a `smiles` column, or one per line; `-` = stdin).
-    #[arg(long, value_name = "FILE")]
-    pub input: Option<PathBuf>,
+    #[command(flatten)]
+    pub structures: batch::Structures,
     /// Ignore handbook values (logP here) and use the estimates alone.
     #[arg(long)]
     pub estimate_only: bool,
-    /// Worker threads for `--input` (default: all cores).
-    #[arg(long, value_name = "N", value_parser = clap::value_parser!(u16).range(1..))]
-    pub jobs: Option<u16>,
 }
 
 /// One component of the input.
@@ -159,29 +151,19 @@ fn rows(infos: &[Info]) -> Vec<Row> {
 }
 
 pub fn run(args: &Args, cli: &Cli) -> Result<String> {
-    if let Some(path) = &args.input {
-        let opts = batch::Options {
-            jobs: args.jobs.map(usize::from),
-            progress: true,
-        };
-        let mut sink = batch::Sink::new(cli.format, std::io::BufWriter::new(std::io::stdout()));
-        batch::run(
-            &args.smiles,
-            path,
-            &opts,
-            |entry| describe_entry(entry, args.estimate_only),
-            |infos: &[Info]| sink.write(infos, || rows(infos), String::new),
-        )?;
-        batch::quiet_on_closed_pipe(sink.finish())?;
+    let structures = &args.structures;
+    structures.require_some()?;
+    let streamed = structures.stream(
+        cli.format,
+        |entry| describe_entry(entry, args.estimate_only),
+        rows,
+        |_: &[Info]| String::new(),
+    )?;
+    if streamed {
         return Ok(String::new());
     }
-    if args.smiles.is_empty() {
-        return Err(Error::Input(
-            "give at least one SMILES, or --input FILE".into(),
-        ));
-    }
     // Typed on the command line: stop at the first bad structure and point at it.
-    let infos = args
+    let infos = structures
         .smiles
         .iter()
         .map(|smiles| describe_with(smiles, args.estimate_only))

@@ -1,7 +1,5 @@
 //! `phdose pka`: the ionizable sites of each structure with pKa, range and source.
 
-use std::path::PathBuf;
-
 use serde::Serialize;
 use tabled::Tabled;
 
@@ -10,23 +8,16 @@ use super::{Cli, Format, open_store};
 use crate::acidity::interplay::SiteConstant;
 use crate::acidity::measured::Origin;
 use crate::acidity::{Handbook, Profile, Site};
-use crate::error::{Error, Result};
+use crate::error::Result;
 use crate::report;
 
 #[derive(Debug, clap::Args)]
 pub struct Args {
-    /// Structures as SMILES.
-    pub smiles: Vec<String>,
-    /// Read structures from a file (CSV with a `smiles` column, or one per line; `-` = stdin).
-    /// Bad rows do not stop the run: their `error` is set.
-    #[arg(long, value_name = "FILE")]
-    pub input: Option<PathBuf>,
+    #[command(flatten)]
+    pub structures: batch::Structures,
     /// Use the group estimates only, ignoring stored measured values.
     #[arg(long)]
     pub estimate_only: bool,
-    /// Worker threads for `--input` (default: all cores).
-    #[arg(long, value_name = "N", value_parser = clap::value_parser!(u16).range(1..))]
-    pub jobs: Option<u16>,
 }
 
 /// The JSON object for one input structure (design §5).
@@ -165,30 +156,20 @@ pub fn annotate_entry(entry: &Entry, handbook: &Handbook) -> PkaResult {
 }
 
 pub fn run(args: &Args, cli: &Cli) -> Result<String> {
-    if args.smiles.is_empty() && args.input.is_none() {
-        return Err(Error::Input(
-            "give at least one SMILES, or --input FILE".into(),
-        ));
-    }
+    let structures = &args.structures;
+    structures.require_some()?;
     let handbook = Handbook::from_store(&open_store(&cli.db)?, args.estimate_only)?;
-    if let Some(path) = &args.input {
-        let opts = batch::Options {
-            jobs: args.jobs.map(usize::from),
-            progress: true,
-        };
-        let mut sink = batch::Sink::new(cli.format, std::io::BufWriter::new(std::io::stdout()));
-        batch::run(
-            &args.smiles,
-            path,
-            &opts,
-            |entry| annotate_entry(entry, &handbook),
-            |results: &[PkaResult]| sink.write(results, || rows(results), || notes(results)),
-        )?;
-        batch::quiet_on_closed_pipe(sink.finish())?;
+    let streamed = structures.stream(
+        cli.format,
+        |entry| annotate_entry(entry, &handbook),
+        |results: &[PkaResult]| rows(results),
+        notes,
+    )?;
+    if streamed {
         return Ok(String::new());
     }
     // Typed on the command line: stop at the first bad structure and point at it.
-    let results = args
+    let results = structures
         .smiles
         .iter()
         .map(|smiles| annotate(smiles, &handbook))

@@ -6,6 +6,8 @@
 //! of their tuples. Atom tests are memoised per (pattern atom, molecule atom) and recursive
 //! `$(...)` results per (sub-pattern, molecule atom), for the whole call.
 
+use std::cell::RefCell;
+
 use super::query::{AtomPrim, BondExpr, BondPrim, QueryGraph};
 use super::target::Target;
 use crate::chem::molecule::Order;
@@ -20,35 +22,72 @@ const UNKNOWN: u8 = 0;
 const YES: u8 = 1;
 const NO: u8 = 2;
 
+/// The buffers of a finished matching call, kept per thread for the next one: a table of a
+/// hundred patterns run on every row of a batch would otherwise allocate and free them (memo
+/// tables, search states) for each pattern that passes the element screen.
+#[derive(Default)]
+struct Scratch {
+    memo: Vec<Vec<u8>>,
+    anchored: Vec<Vec<u8>>,
+    spare: Vec<State>,
+}
+
+thread_local! {
+    static SCRATCH: RefCell<Scratch> = RefCell::new(Scratch::default());
+}
+
 /// Everything one matching call shares across its main and recursive searches.
 pub(crate) struct Context<'a, 'm> {
     target: &'a Target<'m>,
     main: &'a QueryGraph,
     recursive: &'a [QueryGraph],
     /// Per graph (recursive ones first, main last): atom-test memo, pattern atom × molecule atom.
+    /// Empty until the graph's first atom test: most patterns of a table are rejected by the
+    /// element screen and never pay for one.
     memo: Vec<Vec<u8>>,
-    /// Per recursive graph: does it match anchored at each molecule atom.
+    /// Per recursive graph: does it match anchored at each molecule atom (empty until asked).
     anchored: Vec<Vec<u8>>,
+    /// Search buffers handed back by finished searches, so that the anchored searches of a
+    /// recursive `$(...)` (one per molecule atom) reuse them instead of allocating.
+    spare: Vec<State>,
     /// Placements tried so far, against `STEP_BUDGET`.
     steps: usize,
 }
 
 impl<'a, 'm> Context<'a, 'm> {
     pub fn new(target: &'a Target<'m>, main: &'a QueryGraph, recursive: &'a [QueryGraph]) -> Self {
-        let n = target.atom_count();
-        let memo = recursive
-            .iter()
-            .chain(std::iter::once(main))
-            .map(|g| vec![UNKNOWN; g.atoms.len() * n])
-            .collect();
+        // A context made while another one of this thread holds the buffers starts empty.
+        let mut scratch = SCRATCH
+            .try_with(|s| s.try_borrow_mut().map(|mut s| std::mem::take(&mut *s)))
+            .ok()
+            .and_then(Result::ok)
+            .unwrap_or_default();
+        // An empty memo table means "not started" (filled on the graph's first atom test).
+        for table in [&mut scratch.memo, &mut scratch.anchored] {
+            table.iter_mut().for_each(Vec::clear);
+        }
+        if scratch.memo.len() < recursive.len() + 1 {
+            scratch.memo.resize_with(recursive.len() + 1, Vec::new);
+        }
+        if scratch.anchored.len() < recursive.len() {
+            scratch.anchored.resize_with(recursive.len(), Vec::new);
+        }
         Context {
             target,
             main,
             recursive,
-            memo,
-            anchored: vec![vec![UNKNOWN; n]; recursive.len()],
+            memo: scratch.memo,
+            anchored: scratch.anchored,
+            spare: scratch.spare,
             steps: 0,
         }
+    }
+
+    /// Whether `graph` cannot embed in `target` at all: more atoms than the molecule, or an
+    /// atom whose allowed elements occur nowhere in it.
+    pub fn screened_out(target: &Target, graph: &QueryGraph) -> bool {
+        graph.atoms.len() > target.atom_count()
+            || graph.elements.iter().any(|&e| e & target.elements == 0)
     }
 
     /// Index of the main graph in `memo`.
@@ -73,24 +112,23 @@ impl<'a, 'm> Context<'a, 'm> {
         report: &mut dyn FnMut(&[usize]) -> bool,
     ) {
         let graph = self.graph(id);
-        if graph.atoms.len() > self.target.atom_count() {
+        if Self::screened_out(self.target, graph) {
             return;
         }
-        // An atom whose element occurs nowhere in the molecule: no embedding at all.
-        if graph
-            .elements
-            .iter()
-            .any(|&e| e & self.target.elements == 0)
-        {
-            return;
-        }
-        let mut state = State {
+        let mut state = self.spare.pop().unwrap_or_else(|| State {
             id,
             anchor,
-            map: vec![usize::MAX; graph.atoms.len()],
-            used: vec![false; self.target.atom_count()],
-        };
+            map: Vec::new(),
+            used: Vec::new(),
+        });
+        state.id = id;
+        state.anchor = anchor;
+        state.map.clear();
+        state.map.resize(graph.atoms.len(), usize::MAX);
+        state.used.clear();
+        state.used.resize(self.target.atom_count(), false);
         self.extend(&mut state, 0, report);
+        self.spare.push(state);
     }
 
     /// Places pattern atom `k`; returns `true` when the caller asked to stop.
@@ -190,7 +228,12 @@ impl<'a, 'm> Context<'a, 'm> {
 
     /// Whether pattern atom `k` of graph `id` accepts molecule atom `m` (memoised).
     fn atom_ok(&mut self, id: usize, k: usize, m: usize) -> bool {
-        let slot = k * self.target.atom_count() + m;
+        let n = self.target.atom_count();
+        let slot = k * n + m;
+        if self.memo[id].is_empty() {
+            let len = self.graph(id).atoms.len() * n;
+            self.memo[id].resize(len, UNKNOWN);
+        }
         match self.memo[id][slot] {
             YES => return true,
             NO => return false,
@@ -244,6 +287,9 @@ impl<'a, 'm> Context<'a, 'm> {
 
     /// Whether recursive pattern `r` matches with its first atom on `m` (memoised).
     fn recursive_match(&mut self, r: usize, m: usize) -> bool {
+        if self.anchored[r].is_empty() {
+            self.anchored[r].resize(self.target.atom_count(), UNKNOWN);
+        }
         match self.anchored[r][m] {
             YES => return true,
             NO => return false,
@@ -256,6 +302,22 @@ impl<'a, 'm> Context<'a, 'm> {
         });
         self.anchored[r][m] = if found { YES } else { NO };
         found
+    }
+}
+
+impl Drop for Context<'_, '_> {
+    fn drop(&mut self) {
+        let scratch = Scratch {
+            memo: std::mem::take(&mut self.memo),
+            anchored: std::mem::take(&mut self.anchored),
+            spare: std::mem::take(&mut self.spare),
+        };
+        // Nothing to keep them in while the thread is ending or another context holds them.
+        let _ = SCRATCH.try_with(|s| {
+            if let Ok(mut s) = s.try_borrow_mut() {
+                *s = scratch;
+            }
+        });
     }
 }
 

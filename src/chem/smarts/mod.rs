@@ -132,6 +132,10 @@ impl Pattern {
         anchor: Option<usize>,
         report: &mut dyn FnMut(&[usize]) -> bool,
     ) {
+        // Most patterns of a table fail this screen: reject them before any allocation.
+        if Context::screened_out(target, &self.graph) {
+            return;
+        }
         let mut ctx = Context::new(target, &self.graph, &self.recursive);
         let main = ctx.main_id();
         ctx.search(main, anchor, report);
