@@ -137,24 +137,49 @@ fn solute_table(inputs: &AdjustInputs, results: &[Adjustment], solutes: &[Solute
         .solutes
         .iter()
         .enumerate()
-        .map(|(i, (smiles, amount))| {
-            let mol = amounts.and_then(|s| s.get(i)).map(|s| s.amount_mol);
-            let mass = solutes.get(i).map(|s| s.molar_mass);
+        .map(|(i, (smiles, amount))| GivenAmount {
+            smiles,
+            given: amount_text(amount),
+            mol: amounts.and_then(|s| s.get(i)).map(|s| s.amount_mol),
+            molar_mass: solutes.get(i).map(|s| s.molar_mass),
+        });
+    amounts_table("Solutes, as given", rows)
+}
+
+/// One compound as the user gave it, with the moles that amount came to.
+pub(super) struct GivenAmount<'a> {
+    pub smiles: &'a str,
+    /// The amount exactly as typed.
+    pub given: String,
+    pub mol: Option<f64>,
+    /// g/mol.
+    pub molar_mass: Option<f64>,
+}
+
+/// The table of compounds as given (SMILES, amount typed, moles, mass, molar mass) that opens
+/// the inputs of the `adjust` and `plan` reports.
+pub(super) fn amounts_table<'a>(
+    caption: &str,
+    compounds: impl Iterator<Item = GivenAmount<'a>>,
+) -> Table {
+    let rows = compounds
+        .enumerate()
+        .map(|(i, c)| {
             vec![
                 Cell::Num(format!("{}", i + 1)),
-                Cell::Code(smiles.clone()),
-                Cell::Num(amount_text(amount)),
-                Cell::Num(mol.map_or("-".into(), fmt_moles)),
-                Cell::Num(match (mol, mass) {
+                Cell::Code(c.smiles.to_string()),
+                Cell::Num(c.given),
+                Cell::Num(c.mol.map_or("-".into(), fmt_moles)),
+                Cell::Num(match (c.mol, c.molar_mass) {
                     (Some(n), Some(m)) => fmt_mass(n * m),
                     _ => "-".into(),
                 }),
-                Cell::Num(mass.map_or("-".into(), |m| format!("{m:.2}"))),
+                Cell::Num(c.molar_mass.map_or("-".into(), |m| format!("{m:.2}"))),
             ]
         })
         .collect();
     Table {
-        caption: Some("Solutes, as given".into()),
+        caption: Some(caption.into()),
         header: [
             "#",
             "SMILES",

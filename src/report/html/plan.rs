@@ -3,7 +3,7 @@
 //! pH was chosen, the fractions it leaves (purity, recovery, contents), how to get each
 //! compound back, the ionization curves with the step pHs marked, and the notes and cautions.
 
-use super::adjust::{SoluteCurves, short_ph};
+use super::adjust::{GivenAmount, SoluteCurves, amounts_table, short_ph};
 use super::figure::ionization_figure;
 use super::{Block, Cell, Report, Section, Table, merge_cautions};
 use crate::report::ionization::Compound;
@@ -190,33 +190,13 @@ fn solute_table(inputs: &PlanInputs, plan: &Plan, solutes: &[SoluteCurves]) -> T
         .solutes
         .iter()
         .enumerate()
-        .map(|(i, (smiles, amount))| {
-            let mol = totals[i];
-            let mass = solutes.get(i).map(|s| s.molar_mass);
-            vec![
-                Cell::Num(format!("{}", i + 1)),
-                Cell::Code(smiles.clone()),
-                Cell::Num(amount.clone()),
-                Cell::Num(fmt_moles(mol)),
-                Cell::Num(mass.map_or("-".into(), |m| fmt_mass(mol * m))),
-                Cell::Num(mass.map_or("-".into(), |m| format!("{m:.2}"))),
-            ]
-        })
-        .collect();
-    Table {
-        caption: Some("The mixture, as given".into()),
-        header: [
-            "#",
-            "SMILES",
-            "amount given",
-            "amount",
-            "mass",
-            "molar mass (g/mol)",
-        ]
-        .map(String::from)
-        .to_vec(),
-        rows,
-    }
+        .map(|(i, (smiles, amount))| GivenAmount {
+            smiles,
+            given: amount.clone(),
+            mol: Some(totals[i]),
+            molar_mass: solutes.get(i).map(|s| s.molar_mass),
+        });
+    amounts_table("The mixture, as given", rows)
 }
 
 fn settings(inputs: &PlanInputs, plan: &Plan) -> Vec<(String, Cell)> {
