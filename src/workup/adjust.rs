@@ -190,27 +190,25 @@ pub fn adjust(
         .targets
         .iter()
         .map(|&target| {
-            let (reagent, offer, why) = if auto {
+            // `auto` already dosed its choice while choosing; a named reagent is dosed here.
+            let (reagent, why, dose) = if auto {
                 let choice =
                     equilibrium::choose_auto(&layer, target, &request.conditions, catalogue)?;
-                (
-                    choice.reagent,
-                    choice.stock,
-                    Some(format!("auto: {}", choice.reason)),
-                )
+                let why = Some(format!("auto: {}", choice.reason));
+                (choice.reagent, why, choice.dose)
             } else {
                 let reagent = Reagent::find(catalogue, &request.reagent)?;
                 let offer = choose_stock(reagent, request.stock.as_deref())?;
-                (reagent.clone(), offer.clone(), None)
+                let dose = equilibrium::dose_with_alternatives(
+                    &layer,
+                    reagent,
+                    offer,
+                    target,
+                    &request.conditions,
+                    catalogue,
+                )?;
+                (reagent.clone(), None, dose)
             };
-            let dose = equilibrium::dose_with_alternatives(
-                &layer,
-                &reagent,
-                &offer,
-                target,
-                &request.conditions,
-                catalogue,
-            )?;
             let context = Context {
                 prepared: &prepared,
                 reagent: &reagent,

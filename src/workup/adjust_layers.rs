@@ -94,24 +94,29 @@ pub fn adjust_with_organic(
     let auto = request.reagent.trim().eq_ignore_ascii_case("auto");
     let mut out = Vec::new();
     for &target in &request.targets {
-        let (reagent, offer, why) = if auto {
-            let (c, _) = layers::choose_auto(&first, target, conditions, catalogue)?;
-            (c.reagent, c.stock, Some(format!("auto: {}", c.reason)))
+        // `auto` already dosed its choice while choosing; a named reagent is dosed here.
+        let (reagent, offer, why, dosed) = if auto {
+            let (c, dosed) = layers::choose_auto(&first, target, conditions, catalogue)?;
+            (
+                c.reagent,
+                c.stock,
+                Some(format!("auto: {}", c.reason)),
+                dosed,
+            )
         } else {
             let reagent = Reagent::find(catalogue, &request.reagent)?;
             let offer = choose_stock(reagent, request.stock.as_deref())?;
-            (reagent.clone(), offer.clone(), None)
+            let dosed = layers::dose_with_alternatives(
+                &first, reagent, offer, target, conditions, catalogue,
+            )?;
+            (reagent.clone(), offer.clone(), None, dosed)
         };
-        let dosed = layers::dose_with_alternatives(
-            &first, &reagent, &offer, target, conditions, catalogue,
-        )?;
-        let (_, limit) = layers::reachable_range(&first, &reagent, &offer, conditions)?;
         let context = Context {
             prepared: &prepared,
             reagent: &reagent,
             conditions,
             start_ph: start.ph,
-            limit_ph: limit,
+            limit_ph: dosed.dose.limit_ph,
             total_solute_mol,
             why,
             solvent: Some(layer.solvent.name.clone()),
