@@ -74,6 +74,14 @@ fn counterion_table() -> Result<&'static [CounterionRow]> {
         .map_err(|e| Error::Internal(format!("data/counterions.csv: {e}")))
 }
 
+impl Compound {
+    /// The parent that stands for the compound (most atoms), e.g. the amine of an amine
+    /// hydrochloride or the larger ion of an organic salt; `None` for counter-ions alone.
+    pub fn main_parent(&self) -> Option<usize> {
+        (0..self.parents.len()).max_by_key(|&i| self.parents[i].atoms.len())
+    }
+}
+
 /// Splits a parsed molecule into parents and counter-ions (see the module doc).
 pub fn split(mol: &Molecule) -> Result<Compound> {
     let table = counterion_table()?;

@@ -309,8 +309,8 @@ fn solute_reports(prepared: &[Prepared], eq: &equilibrium::Equilibrium) -> Vec<S
     for p in prepared {
         let parents = &p.profile.compound.parents;
         let these: Vec<_> = states.by_ref().take(parents.len()).collect();
-        // The main component (most atoms) stands for the compound's extractable share.
-        let main = (0..parents.len()).max_by_key(|&i| parents[i].atoms.len());
+        // The main component stands for the compound's extractable share.
+        let main = p.profile.compound.main_parent();
         solutes.push(SoluteReport {
             smiles: p.profile.smiles.clone(),
             amount_mol: p.amount_mol,

@@ -11,10 +11,10 @@ use super::adjust::SoluteInput;
 use super::layers::TwoLayers;
 use crate::acidity::{Handbook, Profile};
 use crate::chem::formula::molar_mass;
-use crate::chem::molecule::Molecule;
 use crate::equilibrium::AqueousLayer;
 use crate::error::{Error, Result};
 use crate::partition::measured::{OctanolLogP, octanol_log_p};
+use crate::partition::solvents::is_hydrogen_bond_donor;
 use crate::partition::solvents::{Basis, Solvent, SolventLogP};
 
 /// The partition coefficient of one parent's neutral form.
@@ -56,15 +56,6 @@ pub struct Member {
     pub main: usize,
 }
 
-/// Whether the atoms of one parent carry an O-H, N-H or S-H (the donor fits of the solvent
-/// relations).
-fn parent_is_donor(mol: &Molecule, atoms: &[usize]) -> bool {
-    atoms.iter().any(|&i| {
-        let a = &mol.atoms[i];
-        matches!(a.element, 7 | 8 | 16) && a.hydrogens() > 0
-    })
-}
-
 impl Member {
     /// Reads `input` (amounts given as a concentration refer to `water_l`) and finds its
     /// partition coefficients for `solvent`.
@@ -93,7 +84,10 @@ impl Member {
             .iter()
             .map(|parent| {
                 let octanol = octanol_log_p(neutral, &parent.atoms, handbook.estimate_only)?;
-                let solvent = solvent.log_p(octanol.log_p, parent_is_donor(neutral, &parent.atoms));
+                let solvent = solvent.log_p(
+                    octanol.log_p,
+                    is_hydrogen_bond_donor(neutral, &parent.atoms),
+                );
                 Ok(Partition {
                     octanol,
                     solvent,
@@ -101,10 +95,7 @@ impl Member {
                 })
             })
             .collect::<Result<Vec<_>>>()?;
-        let parents = &profile.compound.parents;
-        let main = (0..parents.len())
-            .max_by_key(|&i| parents[i].atoms.len())
-            .unwrap_or(0);
+        let main = profile.compound.main_parent().unwrap_or(0);
         Ok(Member {
             smiles: input.smiles.clone(),
             profile,

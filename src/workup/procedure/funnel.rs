@@ -9,7 +9,7 @@
 use crate::equilibrium::{AqueousLayer, Conditions, Polyprotic, Reagent, Stock};
 use crate::error::Result;
 use crate::partition::measured::octanol_log_p;
-use crate::partition::solvents::Solvent;
+use crate::partition::solvents::{Solvent, is_hydrogen_bond_donor};
 use crate::workup::layers::{self, TwoLayerState, TwoLayers};
 
 use super::model::{Compound, Liquid, Portion};
@@ -41,7 +41,7 @@ pub fn slots(compounds: &[Compound], estimate_only: bool) -> Result<(Vec<Slot>, 
         let (protolytes, cations, anions) = c.profile.protolytes(1.0);
         ions.push((cations, anions));
         let parents = &c.profile.compound.parents;
-        let main = (0..parents.len()).max_by_key(|&i| parents[i].atoms.len());
+        let main = c.profile.compound.main_parent();
         let neutral = &c.profile.compound.neutral;
         for (pi, (parent, protolyte)) in parents.iter().zip(protolytes).enumerate() {
             let log_p_octanol = if parent.permanent_charge != 0 {
@@ -49,10 +49,7 @@ pub fn slots(compounds: &[Compound], estimate_only: bool) -> Result<(Vec<Slot>, 
             } else {
                 Some(octanol_log_p(neutral, &parent.atoms, estimate_only)?.log_p)
             };
-            let donor = parent.atoms.iter().any(|&i| {
-                let a = &neutral.atoms[i];
-                matches!(a.element, 7 | 8 | 16) && a.hydrogens() > 0
-            });
+            let donor = is_hydrogen_bond_donor(neutral, &parent.atoms);
             out.push(Slot {
                 compound: ci,
                 protolyte,
