@@ -54,16 +54,13 @@ pub fn with_reagent(
     out.strong_anions_mol += mol * reagent.strong_anions;
     out.carbonate_mol += mol * reagent.carbonate;
     if let Some(system) = &reagent.system {
-        match out.polyprotics.iter_mut().find(|p| p.name == system.name) {
-            Some(existing) => existing.total_mol += mol,
-            None => out.polyprotics.push(Polyprotic {
-                name: system.name.clone(),
-                total_mol: mol,
-                top_charge: system.top_charge,
-                pkas: system.pkas.clone(),
-                dh_kj_mol: system.dh_kj_mol.clone(),
-            }),
-        }
+        out.add_polyprotic(Polyprotic {
+            name: system.name.clone(),
+            total_mol: mol,
+            top_charge: system.top_charge,
+            pkas: system.pkas.clone(),
+            dh_kj_mol: system.dh_kj_mol.clone(),
+        });
     }
     if let Stock::Solution { molar } = stock {
         out.volume_l += mol / molar;

@@ -46,6 +46,15 @@ pub struct AqueousLayer {
 }
 
 impl AqueousLayer {
+    /// Adds `mol` of a reagent's weak acid-base system, joining the moles already present
+    /// from the same system.
+    pub fn add_polyprotic(&mut self, system: Polyprotic) {
+        match self.polyprotics.iter_mut().find(|p| p.name == system.name) {
+            Some(existing) => existing.total_mol += system.total_mol,
+            None => self.polyprotics.push(system),
+        }
+    }
+
     /// Pure water of `volume_l` litres.
     pub fn water(volume_l: f64) -> AqueousLayer {
         AqueousLayer {

@@ -6,7 +6,7 @@
 //! Compounds are tracked per titrating parent ("slot"): a salt of two organic parts can split
 //! between the layers; a compound's place in reports is that of its main (largest) parent.
 
-use crate::equilibrium::{AqueousLayer, Conditions, Polyprotic, Reagent, Stock};
+use crate::equilibrium::{self, AqueousLayer, Conditions};
 use crate::error::Result;
 use crate::partition::measured::octanol_log_p;
 use crate::partition::solvents::{Solvent, is_hydrogen_bond_donor};
@@ -124,7 +124,8 @@ impl Phase {
         let before = self.volume_l();
         let (density, added) = match &portion.liquid {
             Liquid::Reagent { reagent, offer } => {
-                self.ions = with_reagent(&self.ions, reagent, &offer.stock, portion.mol);
+                self.ions =
+                    equilibrium::dose::with_reagent(&self.ions, reagent, &offer.stock, portion.mol);
                 (portion.liquid.density_g_ml(), portion.volume_l)
             }
             Liquid::Plain(p) => {
@@ -141,10 +142,6 @@ impl Phase {
     }
 }
 
-fn with_reagent(ions: &AqueousLayer, reagent: &Reagent, stock: &Stock, mol: f64) -> AqueousLayer {
-    crate::equilibrium::dose::with_reagent(ions, reagent, stock, mol)
-}
-
 /// Adds the ions, carbon and reagent systems of `other` to `into` (volumes too).
 fn merge_ions(into: &mut AqueousLayer, other: AqueousLayer) {
     into.volume_l += other.volume_l;
@@ -152,10 +149,7 @@ fn merge_ions(into: &mut AqueousLayer, other: AqueousLayer) {
     into.strong_anions_mol += other.strong_anions_mol;
     into.carbonate_mol += other.carbonate_mol;
     for p in other.polyprotics {
-        match into.polyprotics.iter_mut().find(|q| q.name == p.name) {
-            Some(q) => q.total_mol += p.total_mol,
-            None => into.polyprotics.push(Polyprotic { ..p }),
-        }
+        into.add_polyprotic(p);
     }
 }
 
