@@ -10,10 +10,11 @@ use std::collections::HashMap;
 
 use super::group::Group;
 use super::lookup::Lookup;
-use super::sites::{Site, find_sites};
+use super::sites::{Site, find_sites_in};
 use super::substituent::{Constant, Series, SeriesRow, Substituent, SubstituentRow};
 use super::{hammett, taft};
 use crate::chem::molecule::Molecule;
+use crate::chem::smarts::Target;
 use crate::error::{Error, Result};
 
 /// Range widening per unit of |shift| of each correction term: a sigma value and a rho are each
@@ -269,11 +270,13 @@ fn describe(group: &Group, series: &Series, c: &Correction, parent: Option<&Corr
 
 /// The sites of `mol` with corrected pKa estimates, sorted by atom index.
 pub fn estimate_sites(mol: &Molecule, groups: &[Group], estimator: &Estimator) -> Vec<Site> {
-    let mut sites = find_sites(mol, groups);
+    // One prepared molecule for the group and the substituent patterns.
+    let target = Target::new(mol);
+    let mut sites = find_sites_in(&target, groups);
     if sites.is_empty() {
         return sites;
     }
-    let look = Lookup::new(mol, &estimator.substituents);
+    let look = Lookup::with_target(target, &estimator.substituents);
     for site in &mut sites {
         if let Some(g) = groups.iter().position(|g| g.name == site.group) {
             estimator.apply(mol, site, &groups[g], g, &look);

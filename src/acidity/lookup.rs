@@ -1,23 +1,37 @@
-//! Which substituent row describes the group hanging off an atom: every substituent pattern is
-//! matched once per molecule, and a question "what is attached at atom `a`, coming from `from`"
-//! takes the first row (table order) with an embedding anchored on `a` that does not use `from`.
+//! Which substituent row describes the group hanging off an atom: a question "what is attached
+//! at atom `a`, coming from `from`" takes the first row (table order) with an embedding
+//! anchored on `a` that does not use `from`.
+//!
+//! A row's embeddings are found the first time a question needs them and kept for the rest of
+//! the molecule; a row whose first pattern atom cannot stand on `a` by the cheap screens (element
+//! and coarse properties) has no embedding anchored there and is passed over unmatched.
+
+use std::cell::OnceCell;
 
 use super::substituent::{Position, Substituent};
 use crate::chem::molecule::Molecule;
 use crate::chem::smarts::Target;
 
-/// The substituent embeddings of one molecule.
-pub struct Lookup<'a> {
+/// The substituent embeddings of one molecule, found as asked for.
+pub struct Lookup<'a, 'm> {
     rows: &'a [Substituent],
-    /// Per row, every embedding (molecule atoms in pattern order).
-    embeddings: Vec<Vec<Vec<usize>>>,
+    target: Target<'m>,
+    /// Per row, every embedding (molecule atoms in pattern order), once searched.
+    embeddings: Vec<OnceCell<Vec<Vec<usize>>>>,
 }
 
-impl<'a> Lookup<'a> {
-    pub fn new(mol: &Molecule, rows: &'a [Substituent]) -> Lookup<'a> {
-        let target = Target::new(mol);
-        let embeddings = rows.iter().map(|r| r.pattern.matches_in(&target)).collect();
-        Lookup { rows, embeddings }
+impl<'a, 'm> Lookup<'a, 'm> {
+    pub fn new(mol: &'m Molecule, rows: &'a [Substituent]) -> Lookup<'a, 'm> {
+        Lookup::with_target(Target::new(mol), rows)
+    }
+
+    /// As `new`, on a molecule already prepared for matching.
+    pub fn with_target(target: Target<'m>, rows: &'a [Substituent]) -> Lookup<'a, 'm> {
+        Lookup {
+            rows,
+            target,
+            embeddings: rows.iter().map(|_| OnceCell::new()).collect(),
+        }
     }
 
     /// The first row of `position` anchored on `atom` whose embedding avoids `from`.
@@ -27,14 +41,16 @@ impl<'a> Lookup<'a> {
         from: Option<usize>,
         position: Position,
     ) -> Option<&'a Substituent> {
-        self.rows
-            .iter()
+        let rows = self.rows;
+        rows.iter()
             .zip(&self.embeddings)
             .filter(|(row, _)| row.position == position)
-            .find(|(_, found)| {
-                found
-                    .iter()
-                    .any(|m| m[0] == atom && from.is_none_or(|f| !m.contains(&f)))
+            .find(|(row, found)| {
+                row.pattern.may_start_at(&self.target, atom)
+                    && found
+                        .get_or_init(|| row.pattern.matches_in(&self.target))
+                        .iter()
+                        .any(|m| m[0] == atom && from.is_none_or(|f| !m.contains(&f)))
             })
             .map(|(row, _)| row)
     }

@@ -16,4 +16,4 @@ pub mod taft;
 pub use group::{Group, Kind};
 pub use handbook::Handbook;
 pub use profile::Profile;
-pub use sites::{Site, find_sites};
+pub use sites::{Site, find_sites, find_sites_in};

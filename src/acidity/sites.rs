@@ -25,9 +25,14 @@ pub struct Site {
 
 /// The sites of `mol` under `groups` (table order is priority), sorted by atom index.
 pub fn find_sites(mol: &Molecule, groups: &[Group]) -> Vec<Site> {
-    let mut claimed: Vec<Option<usize>> = vec![None; mol.atoms.len()];
     // Ring facts and sorted neighbours once for the whole table, not once per pattern.
-    let target = Target::new(mol);
+    find_sites_in(&Target::new(mol), groups)
+}
+
+/// As `find_sites`, on a molecule already prepared for matching.
+pub fn find_sites_in(target: &Target, groups: &[Group]) -> Vec<Site> {
+    let mol = target.molecule();
+    let mut claimed: Vec<Option<usize>> = vec![None; mol.atoms.len()];
     for (g, group) in groups.iter().enumerate() {
         // A row can only claim a free atom of an element its site atom allows; when there is
         // none left, its matches would all be ignored, so they are not searched for.
@@ -44,12 +49,12 @@ pub fn find_sites(mol: &Molecule, groups: &[Group]) -> Vec<Site> {
         if !open {
             continue;
         }
-        for m in group.pattern.matches_in(&target) {
+        group.pattern.for_each_match(target, |m| {
             let atom = m[group.site];
             if claimed[atom].is_none() {
                 claimed[atom] = Some(g);
             }
-        }
+        });
     }
     claimed
         .iter()

@@ -73,7 +73,7 @@ fn centre_atom(mol: &Molecule, site: usize) -> usize {
 
 struct Walk<'m, 'v> {
     mol: &'m Molecule,
-    look: &'m Lookup<'m>,
+    look: &'m Lookup<'m, 'm>,
     attenuation: f64,
     visited: &'v mut Vec<bool>,
     unknown: usize,

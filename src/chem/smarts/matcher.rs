@@ -9,6 +9,7 @@
 use std::cell::RefCell;
 
 use super::query::{AtomPrim, BondExpr, BondPrim, QueryGraph};
+use super::signature;
 use super::target::Target;
 use crate::chem::molecule::Order;
 
@@ -88,6 +89,10 @@ impl<'a, 'm> Context<'a, 'm> {
     pub fn screened_out(target: &Target, graph: &QueryGraph) -> bool {
         graph.atoms.len() > target.atom_count()
             || graph.elements.iter().any(|&e| e & target.elements == 0)
+            || graph
+                .signatures
+                .iter()
+                .any(|&s| !signature::possible(s, target.present))
     }
 
     /// Index of the main graph in `memo`.
@@ -183,6 +188,7 @@ impl<'a, 'm> Context<'a, 'm> {
         let graph = self.graph(state.id);
         if state.used[m]
             || !self.target.element_in(m, graph.elements[k])
+            || !signature::accepts(graph.signatures[k], self.target.signature[m])
             || !self.atom_ok(state.id, k, m)
         {
             return false;
@@ -264,13 +270,7 @@ impl<'a, 'm> Context<'a, 'm> {
             AtomPrim::Charge(c) => atom.charge == c,
             // RDKit counts hydrogens kept as atoms (`[2H]`) too: `[CH1]` matches the C of
             // `[2H]C(Cl)(Cl)Cl` (checked with RDKit 2026.09.1).
-            AtomPrim::TotalH(n) => {
-                let kept = t.neighbours[m]
-                    .iter()
-                    .filter(|&&(nb, _)| mol.atoms[nb].element == 1)
-                    .count();
-                atom.hydrogens() as usize + kept == n as usize
-            }
+            AtomPrim::TotalH(n) => t.total_h[m] == n as u16,
             // RDKit 2026.09 counts bracket hydrogens as implicit too (checked: `[h3]` matches
             // the N of C[NH3+]), so with hydrogens folded into atoms `h` is the total count.
             AtomPrim::ImplicitH(n) => count(n, atom.hydrogens() as usize),

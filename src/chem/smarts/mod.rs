@@ -18,6 +18,7 @@ mod bond;
 mod matcher;
 mod parse;
 pub mod query;
+mod signature;
 mod symbols;
 mod target;
 
@@ -28,6 +29,7 @@ use crate::chem::molecule::Molecule;
 use crate::error::ParseError;
 use matcher::Context;
 use query::QueryGraph;
+
 pub use target::Target;
 
 /// A compiled SMARTS pattern.
@@ -76,17 +78,50 @@ impl Pattern {
 
     /// As `matches`, on a prepared molecule (prepare once, run many patterns).
     pub fn matches_in(&self, target: &Target) -> Vec<Vec<usize>> {
-        let mut seen: HashSet<Vec<usize>> = HashSet::new();
         let mut found = Vec::new();
-        self.run(target, None, &mut |m| {
-            let mut key = m.to_vec();
-            key.sort_unstable();
-            if seen.insert(key) {
-                found.push(m.to_vec());
-            }
-            false
-        });
+        self.for_each_match(target, |m| found.push(m.to_vec()));
         found
+    }
+
+    /// Hands `found` every embedding `matches_in` would list, in the same order, without
+    /// collecting them (a caller that only looks at each match allocates nothing per match).
+    pub fn for_each_match(&self, target: &Target, mut found: impl FnMut(&[usize])) {
+        // An atom set is a bit mask while the molecule fits in one; a sorted list otherwise.
+        if target.atom_count() <= 128 {
+            let mut seen: HashSet<u128> = HashSet::new();
+            self.run(target, None, &mut |m| {
+                if seen.insert(m.iter().fold(0u128, |set, &a| set | 1 << a)) {
+                    found(m);
+                }
+                false
+            });
+        } else {
+            let mut seen: HashSet<Vec<usize>> = HashSet::new();
+            self.run(target, None, &mut |m| {
+                let mut key = m.to_vec();
+                key.sort_unstable();
+                if seen.insert(key) {
+                    found(m);
+                }
+                false
+            });
+        }
+    }
+
+    /// Whether the first pattern atom may stand on `atom` by the cheap screens (element and
+    /// coarse properties). `false` means no embedding starts there; `true` is not a match.
+    pub fn may_start_at(&self, target: &Target, atom: usize) -> bool {
+        atom < target.atom_count()
+            && self
+                .graph
+                .elements
+                .first()
+                .is_none_or(|&e| target.element_in(atom, e))
+            && self
+                .graph
+                .signatures
+                .first()
+                .is_none_or(|&s| signature::accepts(s, target.signature[atom]))
     }
 
     /// The first embedding `matches` would list, without looking for the rest.

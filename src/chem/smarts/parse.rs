@@ -33,8 +33,16 @@ pub(crate) fn parse_pattern(text: &str) -> Result<(QueryGraph, Vec<QueryGraph>),
         recursive: Vec::new(),
         hydrogen_at: None,
     };
-    let graph = p.graph(false)?;
-    Ok((graph, p.recursive))
+    let mut graph = p.graph(false)?;
+    // Screens that look into `$(...)` atoms: a nested pattern is read, and pushed, before the
+    // pattern holding it, so one pass in index order sees every reference screened already.
+    let mut recursive = p.recursive;
+    for r in 0..recursive.len() {
+        let (done, rest) = recursive.split_at_mut(r);
+        rest[0].screen(done);
+    }
+    graph.screen(&recursive);
+    Ok((graph, recursive))
 }
 
 impl Parser<'_> {

@@ -5,6 +5,8 @@
 //! depth-first walk, every atom that does not start a new dot-separated part is bonded to an
 //! earlier atom; the matcher relies on that to extend a partial match one written atom at a time.
 
+use super::signature;
+
 /// A logical combination of primitives. `!` binds tightest, then `&` (and implicit and), then
 /// `,`, then `;` — the parser builds the tree so that evaluation needs no precedence rules.
 #[derive(Debug, Clone, PartialEq)]
@@ -137,16 +139,14 @@ pub struct QueryGraph {
     /// Per atom: the elements it can match, one bit per atomic number (all bits when the
     /// expression does not pin the element). Lets the matcher skip most atoms untested.
     pub elements: Vec<u128>,
+    /// Per atom: the coarse atom properties it can accept (`signature`), the second screen.
+    pub signatures: Vec<u64>,
 }
 
 impl QueryGraph {
     /// Builds the matching steps once all bonds are known.
     pub(crate) fn plan(&mut self) {
-        self.elements = self
-            .atoms
-            .iter()
-            .map(|a| allowed_elements(&a.expr))
-            .collect();
+        self.screen(&[]);
         self.steps = (0..self.atoms.len())
             .map(|k| {
                 let mut earlier = self
@@ -164,6 +164,26 @@ impl QueryGraph {
             .collect();
     }
 
+    /// Fills the per-atom screens (`elements`, `signatures`). `recursive` holds the planned
+    /// `$(...)` graphs this one refers to, or is empty when they are not known yet (a `$(...)`
+    /// atom then accepts everything).
+    pub(crate) fn screen(&mut self, recursive: &[QueryGraph]) {
+        let first = |r: usize| recursive.get(r).and_then(|g| g.elements.first().copied());
+        let first = |r: usize| first(r).unwrap_or(u128::MAX);
+        self.elements = self
+            .atoms
+            .iter()
+            .map(|a| allowed_elements(&a.expr, &first))
+            .collect();
+        let first = |r: usize| recursive.get(r).and_then(|g| g.signatures.first().copied());
+        let first = |r: usize| first(r).unwrap_or(signature::ANY);
+        self.signatures = self
+            .atoms
+            .iter()
+            .map(|a| signature::of_expr(&a.expr, &first))
+            .collect();
+    }
+
     /// Whether atoms `a` and `b` are already bonded in the pattern.
     pub(crate) fn bonded(&self, a: usize, b: usize) -> bool {
         self.bonds
@@ -173,12 +193,16 @@ impl QueryGraph {
 }
 
 /// The atomic numbers an atom expression can accept (a superset; exact for element lists).
-fn allowed_elements(expr: &AtomExpr) -> u128 {
+/// `recursive(r)` gives those of the first atom of `$(...)` pattern `r`.
+fn allowed_elements(expr: &AtomExpr, recursive: &dyn Fn(usize) -> u128) -> u128 {
     match expr {
         Expr::Prim(AtomPrim::Element { number, .. }) if *number < 128 => 1u128 << number,
+        Expr::Prim(AtomPrim::Recursive(r)) => recursive(*r),
         Expr::Prim(_) | Expr::Not(_) => u128::MAX,
-        Expr::And(es) => es.iter().fold(u128::MAX, |m, e| m & allowed_elements(e)),
-        Expr::Or(es) => es.iter().fold(0, |m, e| m | allowed_elements(e)),
+        Expr::And(es) => es
+            .iter()
+            .fold(u128::MAX, |m, e| m & allowed_elements(e, recursive)),
+        Expr::Or(es) => es.iter().fold(0, |m, e| m | allowed_elements(e, recursive)),
     }
 }
 
@@ -195,12 +219,15 @@ mod tests {
             })
         };
         let or = Expr::Or(vec![el(7), el(8)]);
-        assert_eq!(allowed_elements(&or), 1 << 7 | 1 << 8);
+        assert_eq!(allowed_elements(&or, &|_| u128::MAX), 1 << 7 | 1 << 8);
         let and = Expr::And(vec![or.clone(), Expr::Prim(AtomPrim::Charge(0))]);
-        assert_eq!(allowed_elements(&and), 1 << 7 | 1 << 8);
-        assert_eq!(allowed_elements(&Expr::Not(Box::new(el(6)))), u128::MAX);
+        assert_eq!(allowed_elements(&and, &|_| u128::MAX), 1 << 7 | 1 << 8);
+        assert_eq!(
+            allowed_elements(&Expr::Not(Box::new(el(6))), &|_| u128::MAX),
+            u128::MAX
+        );
         let with_any = Expr::Or(vec![el(6), Expr::Prim(AtomPrim::Aromatic)]);
-        assert_eq!(allowed_elements(&with_any), u128::MAX);
+        assert_eq!(allowed_elements(&with_any, &|_| u128::MAX), u128::MAX);
     }
 
     #[test]
@@ -238,6 +265,7 @@ mod tests {
             bonds: vec![bond(0, 1), bond(1, 2), bond(0, 2)],
             steps: vec![],
             elements: vec![],
+            signatures: vec![],
         };
         g.plan();
         assert_eq!(g.steps[0].parent, None);

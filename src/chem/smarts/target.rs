@@ -2,6 +2,7 @@
 //! in a fixed order) and ring facts per atom and bond computed once, not once per query atom.
 //! Build one `Target` per molecule and run every pattern of a table against it.
 
+use super::signature;
 use crate::chem::molecule::{Molecule, Order};
 
 /// A molecule with the facts SMARTS primitives ask about, computed once.
@@ -17,6 +18,12 @@ pub struct Target<'m> {
     bond_in_ring: Vec<bool>,
     /// One bit per atomic number present.
     pub(crate) elements: u128,
+    /// Per atom: hydrogens, counting those kept as atoms (`[2H]`), as SMARTS `H` counts them.
+    pub(crate) total_h: Vec<u16>,
+    /// Per atom: the coarse properties of `signature`.
+    pub(crate) signature: Vec<u64>,
+    /// The union of every atom's `signature`.
+    pub(crate) present: u64,
 }
 
 impl<'m> Target<'m> {
@@ -55,9 +62,35 @@ impl<'m> Target<'m> {
             .iter()
             .filter(|a| a.element < 128)
             .fold(0u128, |m, a| m | 1 << a.element);
+        let total_h: Vec<u16> = (0..n)
+            .map(|a| {
+                let kept = mol.adjacency[a]
+                    .iter()
+                    .filter(|&&(nb, _)| mol.atoms[nb].element == 1)
+                    .count();
+                mol.atoms[a].hydrogens() as u16 + kept as u16
+            })
+            .collect();
+        let signature: Vec<u64> = (0..n)
+            .map(|a| {
+                let atom = &mol.atoms[a];
+                signature::of_atom(
+                    atom.aromatic,
+                    atom.charge,
+                    total_h[a] as usize,
+                    mol.degree(a),
+                    mol.connectivity(a),
+                    ring_count[a] > 0,
+                )
+            })
+            .collect();
+        let present = signature.iter().fold(0, |m, s| m | s);
         Target {
             mol,
             elements,
+            total_h,
+            signature,
+            present,
             neighbours,
             ring_count,
             smallest_ring,
