@@ -33,9 +33,24 @@ pub fn find_sites(mol: &Molecule, groups: &[Group]) -> Vec<Site> {
 pub fn find_sites_in(target: &Target, groups: &[Group]) -> Vec<Site> {
     let mol = target.molecule();
     let mut claimed: Vec<Option<usize>> = vec![None; mol.atoms.len()];
+    // Elements of the atoms not claimed yet (one bit per atomic number), redone after a claim.
+    let free_elements = |claimed: &[Option<usize>]| {
+        mol.atoms
+            .iter()
+            .zip(claimed)
+            .filter(|(_, c)| c.is_none())
+            .fold((0u128, false), |(bits, high), (atom, _)| {
+                match atom.element {
+                    e @ 0..128 => (bits | 1 << e, high),
+                    _ => (bits, true),
+                }
+            })
+    };
+    let (mut free, mut free_high) = free_elements(&claimed);
     for (g, group) in groups.iter().enumerate() {
-        // A row can only claim a free atom of an element its site atom allows; when there is
-        // none left, its matches would all be ignored, so they are not searched for.
+        // A row can only claim a free atom its site atom may stand on; when there is none
+        // left, its matches would all be ignored, so they are not searched for. The element
+        // bits decide most rows at once, the per-atom screen the rest.
         let allowed = group
             .pattern
             .graph()
@@ -43,18 +58,25 @@ pub fn find_sites_in(target: &Target, groups: &[Group]) -> Vec<Site> {
             .get(group.site)
             .copied()
             .unwrap_or(u128::MAX);
-        let open = mol.atoms.iter().enumerate().any(|(a, atom)| {
-            claimed[a].is_none() && (atom.element >= 128 || allowed >> atom.element & 1 == 1)
-        });
+        if allowed & free == 0 && !free_high {
+            continue;
+        }
+        let open = (0..mol.atoms.len())
+            .any(|a| claimed[a].is_none() && group.pattern.may_stand_at(target, group.site, a));
         if !open {
             continue;
         }
+        let mut claims = false;
         group.pattern.for_each_match(target, |m| {
             let atom = m[group.site];
             if claimed[atom].is_none() {
                 claimed[atom] = Some(g);
+                claims = true;
             }
         });
+        if claims {
+            (free, free_high) = free_elements(&claimed);
+        }
     }
     claimed
         .iter()

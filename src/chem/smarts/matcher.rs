@@ -148,11 +148,26 @@ impl<'a, 'm> Context<'a, 'm> {
             return report(&state.map);
         }
         let target = self.target;
+        let (elements, signature) = (graph.elements[k], graph.signatures[k]);
+        // The cheap screens (free, element, coarse properties) run here, before a call: most
+        // candidates fail them. Each candidate counts as a placement tried, screened or not.
         match graph.steps[k].parent {
             Some((p, qb)) => {
                 for &(m, b) in &target.neighbours[state.map[p]] {
-                    if bond_ok(target, &graph.bonds[qb].expr, b) && self.place(state, k, m, report)
+                    if !bond_ok(target, &graph.bonds[qb].expr, b) {
+                        continue;
+                    }
+                    self.steps += 1;
+                    if self.steps > STEP_BUDGET {
+                        return true;
+                    }
+                    if state.used[m]
+                        || !target.element_in(m, elements)
+                        || !signature::accepts(signature, target.signature[m])
                     {
+                        continue;
+                    }
+                    if self.place(state, k, m, report) {
                         return true;
                     }
                 }
@@ -163,6 +178,16 @@ impl<'a, 'm> Context<'a, 'm> {
                     None => 0..target.atom_count(),
                 };
                 for m in range {
+                    self.steps += 1;
+                    if self.steps > STEP_BUDGET {
+                        return true;
+                    }
+                    if state.used[m]
+                        || !target.element_in(m, elements)
+                        || !signature::accepts(signature, target.signature[m])
+                    {
+                        continue;
+                    }
                     if self.place(state, k, m, report) {
                         return true;
                     }
@@ -172,8 +197,8 @@ impl<'a, 'm> Context<'a, 'm> {
         false
     }
 
-    /// Tries molecule atom `m` for pattern atom `k` (its parent bond already checked): atom
-    /// test, ring-closure bonds, then the rest of the pattern.
+    /// Tries molecule atom `m` for pattern atom `k` (its parent bond and the cheap screens
+    /// already passed): atom test, ring-closure bonds, then the rest of the pattern.
     fn place(
         &mut self,
         state: &mut State,
@@ -181,16 +206,8 @@ impl<'a, 'm> Context<'a, 'm> {
         m: usize,
         report: &mut dyn FnMut(&[usize]) -> bool,
     ) -> bool {
-        self.steps += 1;
-        if self.steps > STEP_BUDGET {
-            return true;
-        }
         let graph = self.graph(state.id);
-        if state.used[m]
-            || !self.target.element_in(m, graph.elements[k])
-            || !signature::accepts(graph.signatures[k], self.target.signature[m])
-            || !self.atom_ok(state.id, k, m)
-        {
+        if !self.atom_ok(state.id, k, m) {
             return false;
         }
         let target = self.target;

@@ -111,16 +111,22 @@ impl Pattern {
     /// Whether the first pattern atom may stand on `atom` by the cheap screens (element and
     /// coarse properties). `false` means no embedding starts there; `true` is not a match.
     pub fn may_start_at(&self, target: &Target, atom: usize) -> bool {
+        self.may_stand_at(target, 0, atom)
+    }
+
+    /// Whether pattern atom `k` may stand on `atom` by the cheap screens: `false` means no
+    /// embedding puts it there.
+    pub fn may_stand_at(&self, target: &Target, k: usize, atom: usize) -> bool {
         atom < target.atom_count()
             && self
                 .graph
                 .elements
-                .first()
+                .get(k)
                 .is_none_or(|&e| target.element_in(atom, e))
             && self
                 .graph
                 .signatures
-                .first()
+                .get(k)
                 .is_none_or(|&s| signature::accepts(s, target.signature[atom]))
     }
 
