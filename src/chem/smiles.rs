@@ -14,7 +14,6 @@ use purr::feature::{AtomKind, BondKind, BracketSymbol};
 use purr::graph::Builder;
 use purr::read::{Error as ReadError, Trace, read};
 use purr::walk::Follower;
-use std::collections::HashMap;
 
 const WHAT: &str = "SMILES";
 
@@ -130,17 +129,48 @@ fn read_graph(text: &str) -> Result<(Vec<purr::graph::Atom>, Trace), ParseError>
 
 /// purr counts its cursor in characters; phdose reports byte offsets.
 fn byte_offset(text: &str, char_index: usize) -> usize {
+    // Every atom asks: in the usual all-ASCII text a character is a byte, no walk needed.
+    if text.is_ascii() {
+        return char_index.min(text.len());
+    }
     text.char_indices()
         .nth(char_index)
         .map_or(text.len(), |(byte, _)| byte)
 }
 
-/// Element symbol as written, first letter upper-case (`c` -> `C`, `se` -> `Se`).
-fn symbol_case(written: &str) -> String {
-    let mut chars = written.chars();
-    match chars.next() {
-        Some(first) => first.to_ascii_uppercase().to_string() + chars.as_str(),
-        None => String::new(),
+/// An element symbol written into a few bytes on the stack (every atom of every row has one,
+/// and a `String` each was a measurable share of reading).
+#[derive(Default)]
+struct Symbol {
+    bytes: [u8; 8],
+    len: usize,
+}
+
+impl Symbol {
+    /// `written`'s symbol, first letter upper-case (`c` -> `C`, `se` -> `Se`).
+    fn of(written: &dyn std::fmt::Display) -> Symbol {
+        use std::fmt::Write;
+        let mut s = Symbol::default();
+        // A symbol longer than the buffer is cut short and then found in no table.
+        let _ = write!(s, "{written}");
+        s.bytes[..1].make_ascii_uppercase();
+        s
+    }
+
+    fn as_str(&self) -> &str {
+        std::str::from_utf8(&self.bytes[..self.len]).unwrap_or("")
+    }
+}
+
+impl std::fmt::Write for Symbol {
+    fn write_str(&mut self, part: &str) -> std::fmt::Result {
+        let end = self.len + part.len();
+        if end > self.bytes.len() {
+            return Err(std::fmt::Error);
+        }
+        self.bytes[self.len..end].copy_from_slice(part.as_bytes());
+        self.len = end;
+        Ok(())
     }
 }
 
@@ -157,8 +187,8 @@ fn convert(
     for (i, node) in graph.iter().enumerate() {
         let (symbol, isotope, charge, hydrogens, is_organic) = match &node.kind {
             AtomKind::Star => (None, None, 0, 0, false),
-            AtomKind::Aliphatic(a) => (Some(a.to_string()), None, 0, 0, true),
-            AtomKind::Aromatic(a) => (Some(symbol_case(&a.to_string())), None, 0, 0, true),
+            AtomKind::Aliphatic(a) => (Some(Symbol::of(a)), None, 0, 0, true),
+            AtomKind::Aromatic(a) => (Some(Symbol::of(a)), None, 0, 0, true),
             AtomKind::Bracket {
                 isotope,
                 symbol,
@@ -168,8 +198,8 @@ fn convert(
             } => {
                 let symbol = match symbol {
                     BracketSymbol::Star => None,
-                    BracketSymbol::Element(e) => Some(e.to_string()),
-                    BracketSymbol::Aromatic(a) => Some(symbol_case(&a.to_string())),
+                    BracketSymbol::Element(e) => Some(Symbol::of(e)),
+                    BracketSymbol::Aromatic(a) => Some(Symbol::of(a)),
                 };
                 let charge: i8 = charge.as_ref().map_or(0, |c| c.into());
                 let hydrogens: u8 = hcount.as_ref().map_or(0, |h| h.into());
@@ -184,10 +214,10 @@ fn convert(
         };
         let element = match symbol {
             None => 0,
-            Some(s) => match elements::by_symbol(&s) {
+            Some(s) => match elements::by_symbol(s.as_str()) {
                 Some(e) => e.number,
                 None => {
-                    let message = format!("element {s} is not in phdose's table");
+                    let message = format!("element {} is not in phdose's table", s.as_str());
                     return Err(ParseError::new(WHAT, text, position(i), message));
                 }
             },
@@ -222,18 +252,33 @@ fn convert_bonds(
     position: &dyn Fn(usize) -> usize,
 ) -> Result<(Vec<Bond>, Adjacency), ParseError> {
     let mut bonds = Vec::new();
-    let mut index: HashMap<(usize, usize), usize> = HashMap::new();
-    let mut adjacency = vec![Vec::new(); graph.len()];
+    let mut adjacency: Adjacency = vec![Vec::new(); graph.len()];
+    // The bond already made between two atoms: every bond made while reading one of its ends
+    // is listed in that end's adjacency, so the two short lists hold it if it exists.
+    let made = |adjacency: &Adjacency, (lo, hi): (usize, usize)| {
+        let find = |from: usize, to: usize| {
+            adjacency[from]
+                .iter()
+                .find(|&&(nb, _)| nb == to)
+                .map(|&(_, b)| b)
+        };
+        find(lo, hi).or_else(|| find(hi, lo))
+    };
     for (i, node) in graph.iter().enumerate() {
         for bond in &node.bonds {
             let j = bond.tid;
+            if j >= graph.len() {
+                let message = "bond to an atom that does not exist";
+                return Err(ParseError::new(WHAT, text, position(i), message));
+            }
             let key = (i.min(j), i.max(j));
-            if i == j || (i < j && index.contains_key(&key)) {
+            let existing = made(&adjacency, key);
+            if i == j || (i < j && existing.is_some()) {
                 let message = "atom bonded twice to the same neighbour";
                 return Err(ParseError::new(WHAT, text, position(i), message));
             }
-            let b = match index.get(&key) {
-                Some(&b) => b,
+            let b = match existing {
+                Some(b) => b,
                 None => {
                     let written_aromatic = match bond.kind {
                         BondKind::Aromatic => true,
@@ -252,7 +297,6 @@ fn convert_bonds(
                         order,
                         aromatic: written_aromatic,
                     });
-                    index.insert(key, bonds.len() - 1);
                     bonds.len() - 1
                 }
             };
