@@ -33,37 +33,13 @@ pub fn find_sites(mol: &Molecule, groups: &[Group]) -> Vec<Site> {
 pub fn find_sites_in(target: &Target, groups: &[Group]) -> Vec<Site> {
     let mol = target.molecule();
     let mut claimed: Vec<Option<usize>> = vec![None; mol.atoms.len()];
-    // Elements of the atoms not claimed yet (one bit per atomic number), redone after a claim.
-    let free_elements = |claimed: &[Option<usize>]| {
-        mol.atoms
-            .iter()
-            .zip(claimed)
-            .filter(|(_, c)| c.is_none())
-            .fold((0u128, false), |(bits, high), (atom, _)| {
-                match atom.element {
-                    e @ 0..128 => (bits | 1 << e, high),
-                    _ => (bits, true),
-                }
-            })
-    };
-    let (mut free, mut free_high) = free_elements(&claimed);
+    // Atoms not claimed yet, shrunk after each claim.
+    let mut free: Vec<usize> = (0..mol.atoms.len()).collect();
     for (g, group) in groups.iter().enumerate() {
         // A row can only claim a free atom its site atom may stand on; when there is none
-        // left, its matches would all be ignored, so they are not searched for. The element
-        // bits decide most rows at once, the per-atom screen the rest.
-        let allowed = group
-            .pattern
-            .graph()
-            .elements
-            .get(group.site)
-            .copied()
-            .unwrap_or(u128::MAX);
-        if allowed & free == 0 && !free_high {
-            continue;
-        }
-        let open = (0..mol.atoms.len())
-            .any(|a| claimed[a].is_none() && group.pattern.may_stand_at(target, group.site, a));
-        if !open {
+        // left, its matches would all be ignored, so they are not searched for.
+        let screen = group.pattern.screen(group.site);
+        if !free.iter().any(|&a| target.passes(a, screen)) {
             continue;
         }
         let mut claims = false;
@@ -75,7 +51,7 @@ pub fn find_sites_in(target: &Target, groups: &[Group]) -> Vec<Site> {
             }
         });
         if claims {
-            (free, free_high) = free_elements(&claimed);
+            free.retain(|&a| claimed[a].is_none());
         }
     }
     claimed

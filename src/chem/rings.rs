@@ -20,7 +20,7 @@ pub fn perceive_rings(mol: &mut Molecule) {
 /// The SSSR of a molecule: each ring's atoms in cycle order and its bond indices.
 pub fn sssr(mol: &Molecule) -> Rings {
     let n = mol.atoms.len();
-    let cyclomatic = (mol.bonds.len() + mol.components().len()).saturating_sub(n);
+    let cyclomatic = (mol.bonds.len() + component_count(mol)).saturating_sub(n);
     let mut rings = Rings::default();
     if cyclomatic == 0 {
         return rings;
@@ -44,6 +44,38 @@ pub fn sssr(mol: &Molecule) -> Rings {
         }
     }
     rings
+}
+
+/// Number of connected components (as `Molecule::components().len()`, without listing them).
+fn component_count(mol: &Molecule) -> usize {
+    let mut seen = vec![false; mol.atoms.len()];
+    let mut stack = Vec::new();
+    let mut count = 0;
+    for start in 0..mol.atoms.len() {
+        if seen[start] {
+            continue;
+        }
+        count += 1;
+        seen[start] = true;
+        stack.push(start);
+        while let Some(a) = stack.pop() {
+            for &(nb, _) in &mol.adjacency[a] {
+                if !seen[nb] {
+                    seen[nb] = true;
+                    stack.push(nb);
+                }
+            }
+        }
+    }
+    count
+}
+
+/// The atom set of a cycle, for telling cycles found from several roots apart: a bit mask
+/// while the molecule fits in one (no allocation), else the sorted atoms.
+#[derive(PartialEq, Eq, Hash)]
+enum CycleKey {
+    Mask(u128),
+    Sorted(Vec<usize>),
 }
 
 /// The atoms left after repeatedly removing atoms with at most one neighbour left: ring atoms
@@ -126,7 +158,8 @@ fn candidates_over(mol: &Molecule, kept: &[bool], roots: &[usize]) -> Vec<Candid
         .map(|(i, b)| (i, b.a, b.b))
         .filter(|&(_, a, b)| kept[a] && kept[b])
         .collect();
-    let mut seen: HashSet<Vec<usize>> = HashSet::new();
+    let mut seen: HashSet<CycleKey> = HashSet::new();
+    let small = mol.atoms.len() <= 128;
     let mut out = Vec::new();
     // Marks of the atoms on the path from x to the root, by round (no clearing between bonds).
     let mut on_px = vec![usize::MAX; mol.atoms.len()];
@@ -154,12 +187,16 @@ fn candidates_over(mol: &Molecule, kept: &[bool], roots: &[usize]) -> Vec<Candid
                 continue;
             }
             // Cycle order: v .. x, then y .. (before v).
-            let mut cycle: Vec<usize> = px.iter().rev().copied().collect();
-            cycle.extend(py[..py.len() - 1].iter().copied());
-            let mut key = cycle.clone();
-            key.sort_unstable();
+            let around = || px.iter().rev().chain(&py[..py.len() - 1]).copied();
+            let key = if small {
+                CycleKey::Mask(around().fold(0u128, |m, a| m | 1 << a))
+            } else {
+                let mut key: Vec<usize> = around().collect();
+                key.sort_unstable();
+                CycleKey::Sorted(key)
+            };
             if seen.insert(key) {
-                out.push((v, i, cycle));
+                out.push((v, i, around().collect()));
             }
         }
     }

@@ -30,7 +30,7 @@ use crate::error::ParseError;
 use matcher::Context;
 use query::QueryGraph;
 
-pub use target::Target;
+pub use target::{Screen, Target};
 
 /// A compiled SMARTS pattern.
 #[derive(Debug, Clone, PartialEq)]
@@ -117,17 +117,21 @@ impl Pattern {
     /// Whether pattern atom `k` may stand on `atom` by the cheap screens: `false` means no
     /// embedding puts it there.
     pub fn may_stand_at(&self, target: &Target, k: usize, atom: usize) -> bool {
-        atom < target.atom_count()
-            && self
-                .graph
-                .elements
-                .get(k)
-                .is_none_or(|&e| target.element_in(atom, e))
-            && self
+        atom < target.atom_count() && target.passes(atom, self.screen(k))
+    }
+
+    /// The cheap screens of pattern atom `k` (everything passes for an atom the pattern does
+    /// not have), for `Target::passes`.
+    pub fn screen(&self, k: usize) -> Screen {
+        Screen {
+            elements: self.graph.elements.get(k).copied().unwrap_or(u128::MAX),
+            signature: self
                 .graph
                 .signatures
                 .get(k)
-                .is_none_or(|&s| signature::accepts(s, target.signature[atom]))
+                .copied()
+                .unwrap_or(signature::ANY),
+        }
     }
 
     /// The first embedding `matches` would list, without looking for the rest.

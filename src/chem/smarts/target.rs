@@ -5,6 +5,14 @@
 use super::signature;
 use crate::chem::molecule::{Molecule, Order};
 
+/// What one pattern atom can accept, coarsely: its elements (one bit per atomic number) and
+/// its coarse atom properties.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Screen {
+    pub(crate) elements: u128,
+    pub(crate) signature: u64,
+}
+
 /// A molecule with the facts SMARTS primitives ask about, computed once.
 #[derive(Debug, Clone)]
 pub struct Target<'m> {
@@ -105,6 +113,13 @@ impl<'m> Target<'m> {
 
     pub fn atom_count(&self) -> usize {
         self.mol.atoms.len()
+    }
+
+    /// Whether `atom` passes a pattern atom's cheap screens (see `Pattern::screen`); `false`
+    /// means the pattern atom cannot stand on it.
+    pub fn passes(&self, atom: usize, screen: Screen) -> bool {
+        self.element_in(atom, screen.elements)
+            && signature::accepts(screen.signature, self.signature[atom])
     }
 
     /// Whether the element of `atom` is among the bits of `allowed`.
