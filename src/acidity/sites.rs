@@ -33,13 +33,24 @@ pub fn find_sites(mol: &Molecule, groups: &[Group]) -> Vec<Site> {
 pub fn find_sites_in(target: &Target, groups: &[Group]) -> Vec<Site> {
     let mol = target.molecule();
     let mut claimed: Vec<Option<usize>> = vec![None; mol.atoms.len()];
-    // Atoms not claimed yet, shrunk after each claim.
-    let mut free: Vec<usize> = (0..mol.atoms.len()).collect();
+    // The screening facts of the atoms not claimed yet, each kind once (a molecule has a few
+    // kinds of atom, many times over), redone after each claim.
+    let free_kinds = |claimed: &[Option<usize>]| {
+        let mut kinds: Vec<(u128, u64)> = Vec::new();
+        for a in (0..claimed.len()).filter(|&a| claimed[a].is_none()) {
+            let facts = target.screen_facts(a);
+            if !kinds.contains(&facts) {
+                kinds.push(facts);
+            }
+        }
+        kinds
+    };
+    let mut free = free_kinds(&claimed);
     for (g, group) in groups.iter().enumerate() {
         // A row can only claim a free atom its site atom may stand on; when there is none
         // left, its matches would all be ignored, so they are not searched for.
         let screen = group.pattern.screen(group.site);
-        if !free.iter().any(|&a| target.passes(a, screen)) {
+        if !free.iter().any(|&f| Target::facts_pass(f, screen)) {
             continue;
         }
         let mut claims = false;
@@ -51,7 +62,7 @@ pub fn find_sites_in(target: &Target, groups: &[Group]) -> Vec<Site> {
             }
         });
         if claims {
-            free.retain(|&a| claimed[a].is_none());
+            free = free_kinds(&claimed);
         }
     }
     claimed

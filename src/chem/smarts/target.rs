@@ -30,6 +30,9 @@ pub struct Target<'m> {
     pub(crate) total_h: Vec<u16>,
     /// Per atom: the coarse properties of `signature`.
     pub(crate) signature: Vec<u64>,
+    /// Per atom: the bit of its element (all bits past the table's 128), side by side with
+    /// `signature` so the screens read two arrays and not the atoms.
+    element_bit: Vec<u128>,
     /// The union of every atom's `signature`.
     pub(crate) present: u64,
 }
@@ -93,12 +96,21 @@ impl<'m> Target<'m> {
             })
             .collect();
         let present = signature.iter().fold(0, |m, s| m | s);
+        let element_bit = mol
+            .atoms
+            .iter()
+            .map(|a| match a.element {
+                e @ 0..128 => 1u128 << e,
+                _ => u128::MAX,
+            })
+            .collect();
         Target {
             mol,
             elements,
             total_h,
             signature,
             present,
+            element_bit,
             neighbours,
             ring_count,
             smallest_ring,
@@ -124,8 +136,20 @@ impl<'m> Target<'m> {
 
     /// Whether the element of `atom` is among the bits of `allowed`.
     pub(crate) fn element_in(&self, atom: usize, allowed: u128) -> bool {
-        let e = self.mol.atoms[atom].element;
-        e >= 128 || allowed >> e & 1 == 1
+        let bit = self.element_bit[atom];
+        allowed & bit != 0 || bit == u128::MAX
+    }
+
+    /// The screening facts of `atom`: its element bit and coarse properties. Atoms with equal
+    /// facts pass and fail the same screens.
+    pub fn screen_facts(&self, atom: usize) -> (u128, u64) {
+        (self.element_bit[atom], self.signature[atom])
+    }
+
+    /// `passes` on facts from `screen_facts`.
+    pub fn facts_pass((element_bit, sig): (u128, u64), screen: Screen) -> bool {
+        (screen.elements & element_bit != 0 || element_bit == u128::MAX)
+            && signature::accepts(screen.signature, sig)
     }
 
     /// Number of SSSR rings holding the atom.
