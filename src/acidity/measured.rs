@@ -85,20 +85,30 @@ impl Clone for Screen {
     }
 }
 
-/// Heavy-atom formula, (atomic number, count) ascending. Hydrogens are left out: a key may
-/// carry them as counts or as atoms. Equal keys have equal formulas, since a key writes every
-/// heavy atom of its structure once.
-type Formula = Vec<(u8, u32)>;
+/// Heavy-atom formula, (atomic number, count) ascending, and the heavy-atom degrees (bonds
+/// to other heavy atoms), ascending. Hydrogens are left out: a key may carry them as counts or
+/// as atoms. Equal keys have equal formulas and degrees, since a key writes every heavy atom
+/// of its structure once and every bond between them; the degrees tell most isomers apart.
+type Formula = (Vec<(u8, u32)>, Vec<u16>);
 
-fn formula(elements: impl Iterator<Item = u8>) -> Formula {
-    let mut counts: Formula = Vec::new();
-    for e in elements.filter(|&e| e != 1) {
+/// The `Formula` of `atoms` of `mol` (a whole component: every neighbour is among them).
+fn formula(mol: &Molecule, atoms: impl Iterator<Item = usize>) -> Formula {
+    let mut counts: Vec<(u8, u32)> = Vec::new();
+    let mut degrees = Vec::new();
+    for a in atoms.filter(|&a| mol.atoms[a].element != 1) {
+        let e = mol.atoms[a].element;
         match counts.binary_search_by_key(&e, |&(el, _)| el) {
             Ok(i) => counts[i].1 += 1,
             Err(i) => counts.insert(i, (e, 1)),
         }
+        let heavy = mol.adjacency[a]
+            .iter()
+            .filter(|&&(nb, _)| mol.atoms[nb].element != 1)
+            .count();
+        degrees.push(heavy.min(u16::MAX as usize) as u16);
     }
-    counts
+    degrees.sort_unstable();
+    (counts, degrees)
 }
 
 /// What applying the table did to one input.
@@ -153,7 +163,7 @@ impl MeasuredTable {
         let formulas: Option<HashSet<Formula>> = keys
             .map(|k| {
                 let mol = Molecule::from_smiles(k).ok()?;
-                Some(formula(mol.atoms.iter().map(|a| a.element)))
+                Some(formula(&mol, 0..mol.atoms.len()))
             })
             .collect();
         formulas.map(|f| (f, self.user.len() + self.builtin.len()))
@@ -178,7 +188,7 @@ impl MeasuredTable {
         match screen {
             // A count that moved means the maps were edited after screening: trust nothing.
             Some((formulas, n)) if *n == self.user.len() + self.builtin.len() => {
-                formulas.contains(&formula(atoms.iter().map(|&a| mol.atoms[a].element)))
+                formulas.contains(&formula(mol, atoms.iter().copied()))
             }
             _ => true,
         }
@@ -357,6 +367,9 @@ mod tests {
         // Alanine has one more carbon: passed over without a key.
         let ala = split(&Molecule::from_smiles("CC(N)C(=O)O").unwrap()).unwrap();
         assert!(!table.may_hold(&ala.neutral, &ala.parents[0].atoms));
+        // An isomer with another skeleton (a chain of two-bonded atoms): passed over too.
+        let iso = split(&Molecule::from_smiles("NOCC=O").unwrap()).unwrap();
+        assert!(!table.may_hold(&iso.neutral, &iso.parents[0].atoms));
         // Explicit hydrogen atoms do not count.
         let gly_h = split(&Molecule::from_smiles("[H]OC(=O)CN").unwrap()).unwrap();
         assert!(table.may_hold(&gly_h.neutral, &gly_h.parents[0].atoms));
