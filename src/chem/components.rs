@@ -82,16 +82,69 @@ impl Compound {
     }
 }
 
+/// Most atoms other than hydrogen (`*` included) in one counter-ion of the table, read from
+/// the Hill formulas once; `None` when a formula is not plain symbols and counts.
+fn largest_counterion() -> Option<usize> {
+    static LARGEST: OnceLock<Option<usize>> = OnceLock::new();
+    *LARGEST.get_or_init(|| {
+        let rows = counterion_table().ok()?;
+        rows.iter()
+            .map(|r| heavy_atoms_in(&r.formula))
+            .try_fold(0, |most, n| Some(most.max(n?)))
+    })
+}
+
+/// Atoms other than hydrogen in a Hill formula such as `ClHO4` or `C2H3O2`.
+fn heavy_atoms_in(formula: &str) -> Option<usize> {
+    let bytes = formula.as_bytes();
+    let (mut i, mut heavy) = (0, 0);
+    while i < bytes.len() {
+        let start = i;
+        match bytes[i] {
+            b'A'..=b'Z' => {
+                i += 1;
+                while i < bytes.len() && bytes[i].is_ascii_lowercase() {
+                    i += 1;
+                }
+            }
+            b'*' => i += 1,
+            _ => return None,
+        }
+        let symbol = &formula[start..i];
+        let digits = i;
+        while i < bytes.len() && bytes[i].is_ascii_digit() {
+            i += 1;
+        }
+        let count = match &formula[digits..i] {
+            "" => 1,
+            n => n.parse().ok()?,
+        };
+        if symbol != "H" {
+            heavy += count;
+        }
+    }
+    Some(heavy)
+}
+
 /// Splits a parsed molecule into parents and counter-ions (see the module doc).
 pub fn split(mol: &Molecule) -> Result<Compound> {
     let table = counterion_table()?;
+    // A component with more heavy atoms than any counter-ion is none: its formula, the
+    // costliest step here, is not worked out.
+    let largest = largest_counterion();
     let mut neutral = mol.clone();
     let mut parents = Vec::new();
     let mut counterions = Vec::new();
     let (mut cations, mut anions) = (0u32, 0u32);
     for atoms in mol.components() {
-        let formula = hill_formula_of(mol, &atoms);
-        if let Some(row) = table.iter().find(|r| r.formula == formula) {
+        let heavy = atoms.iter().filter(|&&a| mol.atoms[a].element != 1).count();
+        let row = if largest.is_some_and(|most| heavy > most) {
+            None
+        } else {
+            let formula = hill_formula_of(mol, &atoms);
+            table.iter().find(|r| r.formula == formula)
+        };
+        if let Some(row) = row {
             cations += row.cations;
             anions += row.anions;
             counterions.push(Counterion {
@@ -158,5 +211,21 @@ fn neutralize_atom(mol: &mut Molecule, a: usize) {
             atom.charge = 0;
         }
         _ => {}
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    #[test]
+    fn counter_ion_sizes_are_read_from_their_formulas() {
+        assert_eq!(super::heavy_atoms_in("ClHO4"), Some(5));
+        assert_eq!(super::heavy_atoms_in("H2O4S"), Some(5));
+        assert_eq!(super::heavy_atoms_in("C2H3O2"), Some(4));
+        assert_eq!(super::heavy_atoms_in("Na"), Some(1));
+        assert_eq!(super::heavy_atoms_in("HI"), Some(1));
+        assert_eq!(super::heavy_atoms_in("C*2"), Some(3));
+        assert_eq!(super::heavy_atoms_in("Na+"), None);
+        // The table's largest counter-ions (perchloric acid, sulfate) have five heavy atoms.
+        assert!(super::largest_counterion().is_some_and(|n| n >= 5));
     }
 }
