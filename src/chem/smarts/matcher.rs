@@ -153,7 +153,7 @@ impl<'a, 'm> Context<'a, 'm> {
         // candidates fail them. Each candidate counts as a placement tried, screened or not.
         match graph.steps[k].parent {
             Some((p, qb)) => {
-                for &(m, b) in &target.neighbours[state.map[p]] {
+                for &(m, b) in target.neighbours_of(state.map[p]) {
                     if !bond_ok(target, &graph.bonds[qb].expr, b) {
                         continue;
                     }

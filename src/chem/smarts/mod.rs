@@ -88,7 +88,7 @@ impl Pattern {
     pub fn for_each_match(&self, target: &Target, mut found: impl FnMut(&[usize])) {
         // An atom set is a bit mask while the molecule fits in one; a sorted list otherwise.
         if target.atom_count() <= 128 {
-            let mut seen: HashSet<u128> = HashSet::new();
+            let mut seen = SeenSets::default();
             self.run(target, None, &mut |m| {
                 if seen.insert(m.iter().fold(0u128, |set, &a| set | 1 << a)) {
                     found(m);
@@ -184,6 +184,33 @@ impl Pattern {
         let mut ctx = Context::new(target, &self.graph, &self.recursive);
         let main = ctx.main_id();
         ctx.search(main, anchor, report);
+    }
+}
+
+/// Atom sets (bit masks) of the matches handed out so far: a few on the stack, as most
+/// patterns match a handful of times, and a hash set once there are more.
+#[derive(Default)]
+struct SeenSets {
+    few: [u128; 16],
+    count: usize,
+    many: HashSet<u128>,
+}
+
+impl SeenSets {
+    /// Adds `set`; `false` when it was there already.
+    fn insert(&mut self, set: u128) -> bool {
+        if self.count < self.few.len() {
+            if self.few[..self.count].contains(&set) {
+                return false;
+            }
+            self.few[self.count] = set;
+            self.count += 1;
+            return true;
+        }
+        if self.many.is_empty() {
+            self.many.extend(self.few);
+        }
+        self.many.insert(set)
     }
 }
 
@@ -384,6 +411,17 @@ mod tests {
         let mapped = Pattern::parse("[C:1]=[O:2]").unwrap();
         assert_eq!(mapped.atom_maps(), vec![Some(1), Some(2)]);
         assert_eq!(mapped.matches(&acid), vec![vec![1, 2]]);
+    }
+
+    #[test]
+    fn many_matches_count_each_atom_set_once() {
+        // Past the few atom sets kept on the stack: 40 carbons, 39 bonds found both ways.
+        let chain = Molecule::from_smiles(&"C".repeat(40)).unwrap();
+        assert_eq!(count("C", &chain), 40);
+        let bonds = hits("*~*", &chain);
+        assert_eq!(bonds.len(), 39);
+        assert!(bonds.iter().enumerate().all(|(i, m)| *m == vec![i, i + 1]));
+        assert_eq!(count("C~C~C", &chain), 38);
     }
 
     #[test]

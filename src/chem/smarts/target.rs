@@ -18,7 +18,10 @@ pub struct Screen {
 pub struct Target<'m> {
     pub(crate) mol: &'m Molecule,
     /// (neighbour, bond index), ascending by neighbour.
-    pub(crate) neighbours: Vec<Vec<(usize, usize)>>,
+    /// Of atom `a`: `neighbours[start[a]..start[a + 1]]` (one list for the whole molecule,
+    /// not one allocation per atom).
+    neighbours: Vec<(usize, usize)>,
+    start: Vec<usize>,
     ring_count: Vec<usize>,
     /// Smallest SSSR ring size, 0 when the atom is in no ring.
     smallest_ring: Vec<usize>,
@@ -40,15 +43,15 @@ pub struct Target<'m> {
 impl<'m> Target<'m> {
     pub fn new(mol: &'m Molecule) -> Self {
         let n = mol.atoms.len();
-        let neighbours = mol
-            .adjacency
-            .iter()
-            .map(|list| {
-                let mut list = list.clone();
-                list.sort_unstable();
-                list
-            })
-            .collect();
+        let mut neighbours = Vec::with_capacity(2 * mol.bonds.len());
+        let mut start = Vec::with_capacity(n + 1);
+        for list in &mol.adjacency {
+            start.push(neighbours.len());
+            let from = neighbours.len();
+            neighbours.extend_from_slice(list);
+            neighbours[from..].sort_unstable();
+        }
+        start.push(neighbours.len());
         let mut ring_count = vec![0; n];
         let mut smallest_ring = vec![0; n];
         for ring in &mol.rings.rings {
@@ -112,6 +115,7 @@ impl<'m> Target<'m> {
             present,
             element_bit,
             neighbours,
+            start,
             ring_count,
             smallest_ring,
             ring_bonds,
@@ -125,6 +129,11 @@ impl<'m> Target<'m> {
 
     pub fn atom_count(&self) -> usize {
         self.mol.atoms.len()
+    }
+
+    /// (neighbour, bond index) of `atom`, ascending by neighbour.
+    pub(crate) fn neighbours_of(&self, atom: usize) -> &[(usize, usize)] {
+        &self.neighbours[self.start[atom]..self.start[atom + 1]]
     }
 
     /// Whether `atom` passes a pattern atom's cheap screens (see `Pattern::screen`); `false`
@@ -173,7 +182,7 @@ impl<'m> Target<'m> {
 
     /// The bond joining two atoms, if any.
     pub fn bond_between(&self, a: usize, b: usize) -> Option<usize> {
-        self.neighbours[a]
+        self.neighbours_of(a)
             .iter()
             .find(|&&(n, _)| n == b)
             .map(|&(_, bond)| bond)
@@ -295,6 +304,6 @@ pub(crate) mod tests {
         assert_eq!(t.ring_bonds(4), 3);
         assert_eq!(t.bond_between(4, 5), Some(4));
         assert_eq!(t.bond_between(0, 4), None);
-        assert!(t.neighbours[5].windows(2).all(|w| w[0].0 < w[1].0));
+        assert!(t.neighbours_of(5).windows(2).all(|w| w[0].0 < w[1].0));
     }
 }
