@@ -173,6 +173,11 @@ fn candidates_over(mol: &Molecule, kept: &[bool], roots: &[usize]) -> Vec<Candid
             if parent[x].is_none() || parent[y].is_none() {
                 continue;
             }
+            // A bond of the tree itself closes no cycle (the paths below would overlap or be
+            // too short); most bonds are tree bonds, so they are passed over before the paths.
+            if parent[x] == Some(y) || parent[y] == Some(x) {
+                continue;
+            }
             path_to_root(&parent, x, &mut px);
             path_to_root(&parent, y, &mut py);
             // The two paths may meet only at v, and the bond must not be a tree edge.
