@@ -16,7 +16,10 @@ pub struct Lookup<'a> {
 impl<'a> Lookup<'a> {
     pub fn new(mol: &Molecule, rows: &'a [Substituent]) -> Lookup<'a> {
         let target = Target::new(mol);
-        let embeddings = rows.iter().map(|r| r.pattern.matches_in(&target)).collect();
+        let embeddings = rows
+            .iter()
+            .map(|r| r.pattern.anchored_matches_in(&target))
+            .collect();
         Lookup { rows, embeddings }
     }
 

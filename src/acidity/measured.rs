@@ -324,6 +324,7 @@ mod tests {
             pka_low: pka - 1.0,
             pka_high: pka + 1.0,
             source: "estimate".into(),
+            beyond_water: false,
         }
     }
 

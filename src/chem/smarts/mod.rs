@@ -89,6 +89,23 @@ impl Pattern {
         found
     }
 
+    /// As `matches_in`, but embeddings count as distinct when they put the first pattern atom
+    /// on different atoms: a symmetric pattern such as `C#C` is then found anchored at both
+    /// ends (what "which group hangs off this atom" asks).
+    pub fn anchored_matches_in(&self, target: &Target) -> Vec<Vec<usize>> {
+        let mut seen: HashSet<Vec<usize>> = HashSet::new();
+        let mut found = Vec::new();
+        self.run(target, None, &mut |m| {
+            let mut key = m.to_vec();
+            key[1..].sort_unstable();
+            if seen.insert(key) {
+                found.push(m.to_vec());
+            }
+            false
+        });
+        found
+    }
+
     /// The first embedding `matches` would list, without looking for the rest.
     pub fn first_match(&self, mol: &Molecule) -> Option<Vec<usize>> {
         let mut first = None;
