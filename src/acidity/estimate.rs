@@ -176,6 +176,7 @@ impl Estimator {
         site.pka = pka;
         site.pka_low = pka - spread_low;
         site.pka_high = pka + spread_high;
+        site.ring_corrected = series.constant != Constant::Taft;
         site.source = describe(group, series, &c, link.parent.as_ref());
     }
 }

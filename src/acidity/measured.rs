@@ -325,6 +325,7 @@ mod tests {
             pka_high: pka + 1.0,
             source: "estimate".into(),
             beyond_water: false,
+            ring_corrected: false,
         }
     }
 

@@ -26,6 +26,11 @@ pub struct Site {
     /// neutral in water and is listed beside the sites, never as one.
     #[serde(skip)]
     pub beyond_water: bool,
+    /// The estimate carries Hammett terms for the substituents of the site's ring (set by
+    /// `estimate`): an always-ionized substituent there (sulfonate) acts through its sigma,
+    /// which is the anion's, so the site interplay must not count its charge again.
+    #[serde(skip)]
+    pub ring_corrected: bool,
 }
 
 /// The sites of `mol` under `groups` (table order is priority), sorted by atom index.
@@ -70,6 +75,7 @@ pub fn find_sites(mol: &Molecule, groups: &[Group]) -> Vec<Site> {
                 pka_high: group.pka_high,
                 source: group.source.clone(),
                 beyond_water: group.kind.is_none(),
+                ring_corrected: false,
             })
         })
         .collect()
