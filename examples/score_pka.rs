@@ -18,6 +18,8 @@
 //!     [--handbook] [--exclude OTHER.csv]
 
 use std::collections::{BTreeMap, HashSet};
+use std::fmt::Write as _;
+use std::io::Write as _;
 
 use phdose::acidity::reading::Reading;
 use phdose::acidity::{Handbook, Kind, Profile};
@@ -212,24 +214,29 @@ fn run() -> Result<(), Box<dyn std::error::Error>> {
             format!("{smiles} {} {truth} -> {:?} [{group}]", kind.as_str(), hit),
         ));
     }
-    println!(
+    let mut out = String::new();
+    writeln!(
+        out,
         "{:<48} {:>5} {:>6} {:>6} {:>6} {:>6} {:>6}",
         "group", "n", "cov%", "MAE", "RMSE", "in%", "width"
-    );
-    println!("{}", all.line("all"));
-    println!(
+    )?;
+    writeln!(out, "{}", all.line("all"))?;
+    writeln!(
+        out,
         "interval scale for 90 % inside: {:.2} (1.00 = the ranges as reported)",
         all.scale_for_90()
-    );
+    )?;
     for (name, t) in &by_group {
-        println!("{}", t.line(name));
+        writeln!(out, "{}", t.line(name))?;
     }
     if !args.iter().any(|a| a == "--missing") {
         misses.retain(|m| m.0.is_finite());
     }
     misses.sort_by(|a, b| b.0.total_cmp(&a.0));
     for (_, line) in misses.iter().take(worst) {
-        println!("{line}");
+        writeln!(out, "{line}")?;
     }
+    // A closed pipe (`| head`) ends the output quietly.
+    let _ = std::io::stdout().write_all(out.as_bytes());
     Ok(())
 }
