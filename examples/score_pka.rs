@@ -6,13 +6,77 @@
 //! of measured values inside the reported range, the median width of that range, and a
 //! per-group breakdown.
 //!
+//! It also prints the interval scale: the factor by which every range's half-widths would have
+//! to grow (or could shrink) for 90 % of the measured values to fall inside.
+//!
+//! `--handbook` reads the file in the layout of `data/measured.csv` instead (`pka` is a list
+//! like `acid:4.2;base:9.8`; each compound gives its lowest acid and highest base constant),
+//! and `--exclude OTHER.csv` drops every compound whose canonical key is also in OTHER's
+//! `smiles` column: held-out figures for a table that overlaps the calibration set.
+//!
 //! cargo run --release --example score_pka -- FILE.csv [--estimate-only] [--worst N] [--missing]
+//!     [--handbook] [--exclude OTHER.csv]
 
-use std::collections::BTreeMap;
+use std::collections::{BTreeMap, HashSet};
+use std::fmt::Write as _;
+use std::io::Write as _;
 
 use phdose::acidity::reading::Reading;
 use phdose::acidity::{Handbook, Kind, Profile};
+use phdose::chem::canon::key;
 use phdose::store::Store;
+use phdose::store::measured::parse_constants;
+
+/// One measured constant to score: SMILES, kind, pKa.
+type Row = (String, Kind, f64);
+
+/// (smiles, kind, pKa) rows of a scoring file, or of a table laid out as `data/measured.csv`
+/// (`handbook`): there each compound gives its lowest acid and its highest base constant.
+fn read_rows(file: &str, handbook: bool) -> Result<Vec<Row>, Box<dyn std::error::Error>> {
+    let mut reader = csv::ReaderBuilder::new()
+        .comment(Some(b'#'))
+        .from_path(file)?;
+    let headers = reader.headers()?.clone();
+    let col = |name: &str| {
+        headers
+            .iter()
+            .position(|h| h == name)
+            .ok_or(format!("{file} has no '{name}' column"))
+    };
+    let (c_smiles, c_pka) = (col("smiles")?, col("pka")?);
+    let c_kind = if handbook { None } else { Some(col("kind")?) };
+    let mut rows = Vec::new();
+    for record in reader.records() {
+        let record = record?;
+        let smiles = record[c_smiles].to_string();
+        let Some(c_kind) = c_kind else {
+            let constants = parse_constants(&record[c_pka]).map_err(|e| e.to_string())?;
+            let pick = |kind: Kind| {
+                let values = constants.iter().filter(|c| c.0 == Some(kind)).map(|c| c.1);
+                if kind == Kind::Acid {
+                    values.reduce(f64::min)
+                } else {
+                    values.reduce(f64::max)
+                }
+            };
+            for kind in [Kind::Acid, Kind::Base] {
+                if let Some(pka) = pick(kind) {
+                    rows.push((smiles.clone(), kind, pka));
+                }
+            }
+            continue;
+        };
+        let kind = match &record[c_kind] {
+            "acid" => Kind::Acid,
+            "base" => Kind::Base,
+            _ => continue,
+        };
+        if let Ok(pka) = record[c_pka].parse::<f64>() {
+            rows.push((smiles, kind, pka));
+        }
+    }
+    Ok(rows)
+}
 
 #[derive(Default)]
 struct Tally {
@@ -22,6 +86,8 @@ struct Tally {
     sq: f64,
     inside: usize,
     widths: Vec<f64>,
+    /// |error| over the half-width on the side of the measured value.
+    ratios: Vec<f64>,
 }
 
 impl Tally {
@@ -35,7 +101,21 @@ impl Tally {
                 self.inside += 1;
             }
             self.widths.push(high - low);
+            let half = if truth < pka { pka - low } else { high - pka };
+            self.ratios.push(if half > 0.0 {
+                (pka - truth).abs() / half
+            } else {
+                f64::INFINITY
+            });
         }
+    }
+    /// The factor on every half-width that puts 90 % of the values inside.
+    fn scale_for_90(&self) -> f64 {
+        let mut r = self.ratios.clone();
+        r.sort_by(f64::total_cmp);
+        r.get(((r.len() as f64) * 0.9).ceil() as usize - 1)
+            .copied()
+            .unwrap_or(f64::NAN)
     }
     fn median_width(&self) -> f64 {
         let mut w = self.widths.clone();
@@ -71,8 +151,13 @@ fn run() -> Result<(), Box<dyn std::error::Error>> {
     let args: Vec<String> = std::env::args().skip(1).collect();
     let file = args
         .iter()
-        .find(|a| !a.starts_with("--") && a.parse::<usize>().is_err())
-        .ok_or("usage: score_pka FILE.csv [--estimate-only] [--worst N]")?;
+        .enumerate()
+        .find(|(i, a)| {
+            !a.starts_with("--")
+                && (*i == 0 || !matches!(args[i - 1].as_str(), "--worst" | "--exclude"))
+        })
+        .map(|(_, a)| a)
+        .ok_or("usage: score_pka FILE.csv [--estimate-only] [--worst N] [--handbook] [--exclude OTHER.csv]")?;
     let estimate_only = args.iter().any(|a| a == "--estimate-only");
     let worst: usize = args
         .iter()
@@ -81,29 +166,27 @@ fn run() -> Result<(), Box<dyn std::error::Error>> {
         .and_then(|n| n.parse().ok())
         .unwrap_or(0);
     let handbook = Handbook::from_store(&Store::in_memory()?, estimate_only)?;
-    let mut reader = csv::Reader::from_path(file)?;
-    let headers = reader.headers()?.clone();
-    let col = |name: &str| {
-        headers
-            .iter()
-            .position(|h| h == name)
-            .ok_or(format!("{file} has no '{name}' column"))
+    let option = |name: &str| {
+        args.iter()
+            .position(|a| a == name)
+            .and_then(|i| args.get(i + 1))
     };
-    let (c_smiles, c_kind, c_pka) = (col("smiles")?, col("kind")?, col("pka")?);
+    let excluded: HashSet<String> = match option("--exclude") {
+        Some(other) => read_rows(other, false)?
+            .into_iter()
+            .filter_map(|(smiles, ..)| key(&smiles).ok())
+            .collect(),
+        None => HashSet::new(),
+    };
+    let rows: Vec<Row> = read_rows(file, args.iter().any(|a| a == "--handbook"))?
+        .into_iter()
+        .filter(|(smiles, ..)| key(smiles).map_or(true, |k| !excluded.contains(&k)))
+        .collect();
     let mut all = Tally::default();
     let mut by_group: BTreeMap<String, Tally> = BTreeMap::new();
     let mut misses: Vec<(f64, String)> = Vec::new();
-    for record in reader.records() {
-        let record = record?;
-        let smiles = &record[c_smiles];
-        let kind = match &record[c_kind] {
-            "acid" => Kind::Acid,
-            "base" => Kind::Base,
-            _ => continue,
-        };
-        let Ok(truth) = record[c_pka].parse::<f64>() else {
-            continue;
-        };
+    for (smiles, kind, truth) in &rows {
+        let (smiles, kind, truth) = (smiles.as_str(), *kind, *truth);
         let readings: Vec<Reading> = Profile::new(smiles, &handbook)
             .map(|p| {
                 (0..p.compound.parents.len())
@@ -131,20 +214,29 @@ fn run() -> Result<(), Box<dyn std::error::Error>> {
             format!("{smiles} {} {truth} -> {:?} [{group}]", kind.as_str(), hit),
         ));
     }
-    println!(
+    let mut out = String::new();
+    writeln!(
+        out,
         "{:<48} {:>5} {:>6} {:>6} {:>6} {:>6} {:>6}",
         "group", "n", "cov%", "MAE", "RMSE", "in%", "width"
-    );
-    println!("{}", all.line("all"));
+    )?;
+    writeln!(out, "{}", all.line("all"))?;
+    writeln!(
+        out,
+        "interval scale for 90 % inside: {:.2} (1.00 = the ranges as reported)",
+        all.scale_for_90()
+    )?;
     for (name, t) in &by_group {
-        println!("{}", t.line(name));
+        writeln!(out, "{}", t.line(name))?;
     }
     if !args.iter().any(|a| a == "--missing") {
         misses.retain(|m| m.0.is_finite());
     }
     misses.sort_by(|a, b| b.0.total_cmp(&a.0));
     for (_, line) in misses.iter().take(worst) {
-        println!("{line}");
+        writeln!(out, "{line}")?;
     }
+    // A closed pipe (`| head`) ends the output quietly.
+    let _ = std::io::stdout().write_all(out.as_bytes());
     Ok(())
 }

@@ -22,7 +22,7 @@ use crate::error::{Error, Result};
 /// estimates as good to a few tenths for one or two substituents; from memory).
 const WIDEN_PER_SHIFT: f64 = 0.10;
 /// The two-sided 90 % point of the normal distribution: ranges are nominal 90 % intervals.
-const Z90: f64 = 1.645;
+pub(crate) const Z90: f64 = 1.645;
 /// Extra half-width per ortho substituent (proximity effects beyond sigma_o; common practice).
 const WIDEN_ORTHO: f64 = 0.30;
 /// Extra half-width, in sigma units times rho, where sigma_p stands in for a missing sigma_o.
@@ -177,6 +177,7 @@ impl Estimator {
         site.pka = pka;
         site.pka_low = pka - spread_low;
         site.pka_high = pka + spread_high;
+        site.ring_corrected = series.constant != Constant::Taft;
         site.source = describe(group, series, &c, link.parent.as_ref());
     }
 }

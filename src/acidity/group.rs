@@ -24,6 +24,12 @@ impl Kind {
     }
 }
 
+/// A `none` row's constant must lie below this (a very weak base) ...
+pub const NEUTRAL_BELOW: f64 = 1.0;
+/// ... or above this (a very weak acid): between them the group would titrate in a workup
+/// (pH 1-13; common practice) and belongs in an acid or base row.
+pub const NEUTRAL_ABOVE: f64 = 13.0;
+
 /// One compiled group row.
 #[derive(Debug, Clone)]
 pub struct Group {
@@ -34,6 +40,11 @@ pub struct Group {
     pub site: usize,
     /// `None` for groups that are recognized but never titrate in water (amides, alcohols...).
     pub kind: Option<Kind>,
+    /// For such a group with a known constant, which way it goes beyond water's range: a
+    /// constant below `NEUTRAL_BELOW` is a base's (the group takes a proton only in strong
+    /// acid: ketones, amide O), one above `NEUTRAL_ABOVE` an acid's (it loses one only in strong
+    /// base: alcohols, amide N-H). Such groups are listed beside the sites, never as sites.
+    pub beyond_water: Option<Kind>,
     pub pka: f64,
     pub pka_low: f64,
     pub pka_high: f64,
@@ -70,12 +81,24 @@ impl Group {
             other => return Err(bad(format!("unknown kind '{other}'"))),
         };
         let (pka, pka_low, pka_high) = match (kind, pka, low, high) {
-            (None, ..) => (f64::NAN, f64::NAN, f64::NAN),
-            (Some(_), Some(p), Some(l), Some(h)) if l <= p && p <= h => (p, l, h),
+            (None, None, None, None) => (f64::NAN, f64::NAN, f64::NAN),
+            (_, Some(p), Some(l), Some(h)) if l <= p && p <= h => (p, l, h),
             _ => {
                 return Err(bad(
-                    "an acid or base row needs pka_low <= pka <= pka_high".into()
+                    "a row with a constant needs pka_low <= pka <= pka_high".into(),
                 ));
+            }
+        };
+        let beyond_water = match kind {
+            Some(_) => None,
+            None if pka < NEUTRAL_BELOW => Some(Kind::Base),
+            None if pka > NEUTRAL_ABOVE => Some(Kind::Acid),
+            None if pka.is_nan() => None,
+            None => {
+                return Err(bad(format!(
+                    "a none row's constant must lie below {NEUTRAL_BELOW} or above \
+                     {NEUTRAL_ABOVE}; {pka} titrates in water"
+                )));
             }
         };
         Ok(Group {
@@ -84,6 +107,7 @@ impl Group {
             pattern,
             site,
             kind,
+            beyond_water,
             pka,
             pka_low,
             pka_high,

@@ -15,6 +15,7 @@ use serde::{Deserialize, Serialize};
 
 use super::group::Kind;
 use super::profile::Profile;
+use super::sites::Site as GroupSite;
 use crate::chem::molecule::Molecule;
 use crate::equilibrium::Site;
 use crate::equilibrium::microstates::{self, Coupling, MAX_COUPLED_SITES};
@@ -214,12 +215,22 @@ impl Profile {
         {
             return Vec::new();
         }
-        let atoms: Vec<(usize, Kind)> = self
-            .parent_sites(i)
-            .iter()
-            .map(|s| (s.atom, s.kind))
-            .collect();
-        couplings(&self.compound.neutral, &atoms).unwrap_or_default()
+        let sites = self.parent_sites(i);
+        let atoms: Vec<(usize, Kind)> = sites.iter().map(|s| (s.atom, s.kind)).collect();
+        // An acid ionized at every measurable pH (sulfonic acid) enters a ring-corrected
+        // estimate through its substituent constant, which is the anion's (Hansch, Leo & Taft
+        // 1991 tabulate SO3-): its charge is in that estimate already.
+        let always_ionized =
+            |s: &GroupSite| s.kind == Kind::Acid && s.pka < super::reading::MEASURABLE.0;
+        let counted = |a: &GroupSite, b: &GroupSite| always_ionized(a) && b.ring_corrected;
+        couplings(&self.compound.neutral, &atoms)
+            .unwrap_or_default()
+            .into_iter()
+            .filter(|c| {
+                let (a, b) = (sites[c.a], sites[c.b]);
+                !(counted(a, b) || counted(b, a))
+            })
+            .collect()
     }
 
     /// Macroscopic and per-site constants of every parent.

@@ -48,7 +48,7 @@ impl<'a, 'm> Lookup<'a, 'm> {
             .find(|(row, found)| {
                 row.pattern.may_start_at(&self.target, atom)
                     && found
-                        .get_or_init(|| row.pattern.matches_in(&self.target))
+                        .get_or_init(|| row.pattern.anchored_matches_in(&self.target))
                         .iter()
                         .any(|m| m[0] == atom && from.is_none_or(|f| !m.contains(&f)))
             })

@@ -334,6 +334,8 @@ mod tests {
             pka_low: pka - 1.0,
             pka_high: pka + 1.0,
             source: "estimate".into(),
+            beyond_water: false,
+            ring_corrected: false,
         }
     }
 

@@ -2,7 +2,7 @@
 //! and counter-ions, and the sites of each parent.
 
 use super::estimate::estimate_sites;
-use super::group::Kind;
+use super::group::{Kind, NEUTRAL_ABOVE, NEUTRAL_BELOW};
 use super::handbook::Handbook;
 use super::measured::Origin;
 use super::sites::Site;
@@ -21,6 +21,10 @@ pub struct Profile {
     pub compound: Compound,
     /// Sites of all parents, by atom index of the written molecule.
     pub sites: Vec<Site>,
+    /// Groups of the parents whose constant lies beyond water's range (ketone and amide O,
+    /// alcohols...): they stay neutral in water, so they are never sites, but a handbook lists
+    /// their constants.
+    pub neutral_groups: Vec<Site>,
     /// Whether the pKa values are the user's, handbook values or estimates.
     pub origin: Origin,
     /// The same per parent: measured constants are macroscopic, so the site interactions of
@@ -35,11 +39,14 @@ impl Profile {
     pub fn new(smiles: &str, handbook: &Handbook) -> Result<Profile> {
         let molecule = Molecule::from_smiles(smiles)?;
         let compound = split(&molecule)?;
-        let mut sites: Vec<Site> =
+        let (neutral_groups, mut sites): (Vec<Site>, Vec<Site>) =
             estimate_sites(&compound.neutral, &handbook.groups, &handbook.estimator)
                 .into_iter()
                 .filter(|s| compound.parents.iter().any(|p| p.atoms.contains(&s.atom)))
-                .collect();
+                .partition(|s| {
+                    // A correction can bring such a group into the workup range: it titrates.
+                    s.beyond_water && !(NEUTRAL_BELOW..=NEUTRAL_ABOVE).contains(&s.pka)
+                });
         // A stored measured value beats the estimate (design §3), unless --estimate-only.
         let applied = handbook.measured.apply(&compound, &mut sites);
         Ok(Profile {
@@ -47,6 +54,7 @@ impl Profile {
             molecule,
             compound,
             sites,
+            neutral_groups,
             origin: applied.origin,
             parent_origins: applied.parents,
             notes: applied.notes,

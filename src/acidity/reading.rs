@@ -15,12 +15,22 @@
 //! step at which its least-charged form (neutral, zwitterion, or the least-charged ion that
 //! dominates somewhere in the window) loses a proton (acid) or takes one (base): sulfanilic
 //! acid, H3N+-C6H4-SO3-, is listed as an acid by its ammonium constant, and a betaine
-//! (Me3N+-CH2-CO2-) as a base by its carboxylate.
+//! (Me3N+-CH2-CO2-) as a base by its carboxylate. Where there is still none, the reading is
+//! the constant of a group that stays neutral in water (`Profile::neutral_groups`): acetone is
+//! listed as a base by its carbonyl O (pKa about -7), ethanol as an acid by its OH (about 16).
 
+use super::estimate::Z90;
 use super::group::Kind;
 use super::profile::Profile;
 use super::sites::Site;
 use crate::equilibrium::microstates::{Coupling, MAX_COUPLED_SITES};
+
+/// Relative standard uncertainty of a site-interaction shift (`data/site_interactions.csv`):
+/// the handbook pairs behind one distance disagree by about this share (malonic against
+/// 1,3-diaminopropane at distance 4, the scaled opposite-charge rows), so a constant moved
+/// from its site's own value by the interplay of sites widens its range by this share of the
+/// move, as a 1-sigma term in quadrature.
+const INTERACTION_REL_SD: f64 = 0.3;
 
 /// The pH window in which aqueous constants are measured directly (common practice).
 pub const MEASURABLE: (f64, f64) = (0.0, 14.0);
@@ -162,6 +172,45 @@ fn in_window(pka: f64) -> bool {
 impl Profile {
     /// Handbook-style readings of parent `i` (see the module comment).
     pub fn readings(&self, i: usize) -> Readings {
+        let mut readings = self.titration_readings(i);
+        let neutral = self.parent_neutral_groups(i);
+        let as_reading = |s: &Site| Reading {
+            pka: s.pka,
+            pka_low: s.pka_low,
+            pka_high: s.pka_high,
+            atom: s.atom,
+            group: s.group.clone(),
+        };
+        if readings.acid.is_none() {
+            readings.acid = neutral
+                .iter()
+                .filter(|s| s.kind == Kind::Acid)
+                .min_by(|a, b| a.pka.total_cmp(&b.pka))
+                .map(|s| as_reading(s));
+        }
+        if readings.base.is_none() {
+            readings.base = neutral
+                .iter()
+                .filter(|s| s.kind == Kind::Base)
+                .max_by(|a, b| a.pka.total_cmp(&b.pka))
+                .map(|s| as_reading(s));
+        }
+        readings
+    }
+
+    /// The groups of parent `i` that stay neutral in water.
+    pub fn parent_neutral_groups(&self, i: usize) -> Vec<&Site> {
+        let Some(parent) = self.compound.parents.get(i) else {
+            return Vec::new();
+        };
+        self.neutral_groups
+            .iter()
+            .filter(|s| parent.atoms.contains(&s.atom))
+            .collect()
+    }
+
+    /// Readings from the titrating sites alone.
+    fn titration_readings(&self, i: usize) -> Readings {
         let own: Vec<Site> = self.parent_sites(i).into_iter().cloned().collect();
         if own.is_empty() {
             return Readings::default();
@@ -171,10 +220,12 @@ impl Profile {
         steps.sort_by(|a, b| a.0.total_cmp(&b.0));
         let reading = |&(pka, s): &(f64, usize)| {
             let site = &own[s];
+            let moved = Z90 * INTERACTION_REL_SD * (pka - site.pka).abs();
+            let widen = |half: f64| (half.powi(2) + moved.powi(2)).sqrt();
             Reading {
                 pka,
-                pka_low: pka - (site.pka - site.pka_low),
-                pka_high: pka + (site.pka_high - site.pka),
+                pka_low: pka - widen(site.pka - site.pka_low),
+                pka_high: pka + widen(site.pka_high - site.pka),
                 atom: site.atom,
                 group: site.group.clone(),
             }

@@ -1,6 +1,7 @@
 //! Finding sites: every group pattern is matched against the molecule in table order, and the
 //! first row that has an atom as its site claims that atom. Rows of kind `none` claim atoms
-//! too, which is how amide nitrogens and alcohols are kept from ever being reported.
+//! too, which is how amide nitrogens and alcohols are kept from ever being reported as sites;
+//! those with a constant beyond water's range come back marked `beyond_water`.
 
 use serde::Serialize;
 
@@ -21,6 +22,15 @@ pub struct Site {
     pub pka_high: f64,
     /// Where the value comes from.
     pub source: String,
+    /// A group whose constant lies beyond water's range (`Group::beyond_water`): it stays
+    /// neutral in water and is listed beside the sites, never as one.
+    #[serde(skip)]
+    pub beyond_water: bool,
+    /// The estimate carries Hammett terms for the substituents of the site's ring (set by
+    /// `estimate`): an always-ionized substituent there (sulfonate) acts through its sigma,
+    /// which is the anion's, so the site interplay must not count its charge again.
+    #[serde(skip)]
+    pub ring_corrected: bool,
 }
 
 /// The sites of `mol` under `groups` (table order is priority), sorted by atom index.
@@ -73,11 +83,13 @@ pub fn find_sites_in(target: &Target, groups: &[Group]) -> Vec<Site> {
             Some(Site {
                 atom,
                 group: group.name.clone(),
-                kind: group.kind?,
+                kind: group.kind.or(group.beyond_water)?,
                 pka: group.pka,
                 pka_low: group.pka_low,
                 pka_high: group.pka_high,
                 source: group.source.clone(),
+                beyond_water: group.kind.is_none(),
+                ring_corrected: false,
             })
         })
         .collect()

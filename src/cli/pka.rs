@@ -7,7 +7,7 @@ use super::batch::{self, Entry};
 use super::{Cli, Format, open_store};
 use crate::acidity::interplay::SiteConstant;
 use crate::acidity::measured::Origin;
-use crate::acidity::{Handbook, Profile, Site};
+use crate::acidity::{Handbook, Kind, Profile, Site};
 use crate::error::Result;
 use crate::report;
 
@@ -25,6 +25,9 @@ pub struct Args {
 pub struct PkaResult {
     pub smiles: String,
     pub sites: Vec<Site>,
+    /// Recognized groups whose constant lies beyond water's range (ketone O, alcohol O-H...):
+    /// they stay neutral at every workup pH and are never sites; listed with that constant.
+    pub neutral_groups: Vec<Site>,
     /// `user`, `measured` (built-in handbook row) or `estimate`; `mixed` when the parents of
     /// one input differ. Each site's `source` names the value it carries.
     pub origin: Origin,
@@ -63,6 +66,7 @@ pub fn annotate(smiles: &str, handbook: &Handbook) -> Result<PkaResult> {
     Ok(PkaResult {
         smiles: smiles.to_string(),
         sites: profile.sites,
+        neutral_groups: profile.neutral_groups,
         origin: profile.origin,
         notes,
         error: None,
@@ -126,8 +130,21 @@ fn notes(results: &[PkaResult]) -> String {
     results
         .iter()
         .flat_map(|r| {
+            let neutral = r.neutral_groups.iter().map(|s| {
+                let (verb, strong) = match s.kind {
+                    Kind::Acid => ("loses a proton", "base"),
+                    Kind::Base => ("takes a proton", "acid"),
+                };
+                format!(
+                    "stays neutral in water: {} (atom {}) {verb} only in strong {strong}, \
+                     pKa {:.1} ({:.1} to {:.1})",
+                    s.group, s.atom, s.pka, s.pka_low, s.pka_high
+                )
+            });
             r.notes
                 .iter()
+                .cloned()
+                .chain(neutral)
                 .map(move |n| format!("note: {}: {n}\n", r.smiles))
         })
         .collect()
@@ -138,6 +155,7 @@ fn failed(smiles: &str, error: String) -> PkaResult {
     PkaResult {
         smiles: smiles.to_string(),
         sites: vec![],
+        neutral_groups: vec![],
         origin: Origin::Estimate,
         notes: vec![],
         error: Some(error),

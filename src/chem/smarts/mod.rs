@@ -134,6 +134,34 @@ impl Pattern {
         }
     }
 
+    /// As `matches_in`, but embeddings count as distinct when they put the first pattern atom
+    /// on different atoms: a symmetric pattern such as `C#C` is then found anchored at both
+    /// ends (what "which group hangs off this atom" asks).
+    pub fn anchored_matches_in(&self, target: &Target) -> Vec<Vec<usize>> {
+        let mut found = Vec::new();
+        // The first atom and the atom set, as a bit mask while the molecule fits in one.
+        if target.atom_count() <= 128 {
+            let mut seen = SeenSets::default();
+            self.run(target, None, &mut |m| {
+                if seen.insert((m[0], m.iter().fold(0u128, |set, &a| set | 1 << a))) {
+                    found.push(m.to_vec());
+                }
+                false
+            });
+        } else {
+            let mut seen: HashSet<Vec<usize>> = HashSet::new();
+            self.run(target, None, &mut |m| {
+                let mut key = m.to_vec();
+                key[1..].sort_unstable();
+                if seen.insert(key) {
+                    found.push(m.to_vec());
+                }
+                false
+            });
+        }
+        found
+    }
+
     /// The first embedding `matches` would list, without looking for the rest.
     pub fn first_match(&self, mol: &Molecule) -> Option<Vec<usize>> {
         let mut first = None;
@@ -187,18 +215,19 @@ impl Pattern {
     }
 }
 
-/// Atom sets (bit masks) of the matches handed out so far: a few on the stack, as most
-/// patterns match a handful of times, and a hash set once there are more.
+/// Atom sets (bit masks, with the first atom where that counts too) of the matches handed out
+/// so far: a few on the stack, as most patterns match a handful of times, and a hash set once
+/// there are more.
 #[derive(Default)]
-struct SeenSets {
-    few: [u128; 16],
+struct SeenSets<T> {
+    few: [T; 16],
     count: usize,
-    many: HashSet<u128>,
+    many: HashSet<T>,
 }
 
-impl SeenSets {
+impl<T: Copy + Default + Eq + std::hash::Hash> SeenSets<T> {
     /// Adds `set`; `false` when it was there already.
-    fn insert(&mut self, set: u128) -> bool {
+    fn insert(&mut self, set: T) -> bool {
         if self.count < self.few.len() {
             if self.few[..self.count].contains(&set) {
                 return false;
