@@ -177,11 +177,45 @@ impl QueryGraph {
             .collect();
         let first = |r: usize| recursive.get(r).and_then(|g| g.signatures.first().copied());
         let first = |r: usize| first(r).unwrap_or(signature::ANY);
-        self.signatures = self
-            .atoms
-            .iter()
-            .map(|a| signature::of_expr(&a.expr, &first))
+        let on_cycle = self.atoms_on_cycles();
+        self.signatures = (0..self.atoms.len())
+            .map(|k| {
+                let bonds = self.bonds.iter().filter(|q| q.a == k || q.b == k).count();
+                signature::of_expr(&self.atoms[k].expr, &first)
+                    & signature::of_shape(bonds, on_cycle[k])
+            })
             .collect();
+    }
+
+    /// Per atom: whether it lies on a cycle of the pattern graph (has a bond that is no
+    /// bridge: removing it leaves its ends connected). Patterns are small; this runs once.
+    fn atoms_on_cycles(&self) -> Vec<bool> {
+        let n = self.atoms.len();
+        let mut on_cycle = vec![false; n];
+        for (skip, q) in self.bonds.iter().enumerate() {
+            let mut seen = vec![false; n];
+            let mut stack = vec![q.a];
+            seen[q.a] = true;
+            while let Some(a) = stack.pop() {
+                for (i, r) in self.bonds.iter().enumerate() {
+                    let next = match (r.a == a, r.b == a) {
+                        _ if i == skip => continue,
+                        (true, _) => r.b,
+                        (_, true) => r.a,
+                        _ => continue,
+                    };
+                    if next < n && !seen[next] {
+                        seen[next] = true;
+                        stack.push(next);
+                    }
+                }
+            }
+            if q.b < n && seen[q.b] {
+                on_cycle[q.a] = true;
+                on_cycle[q.b] = true;
+            }
+        }
+        on_cycle
     }
 
     /// Whether atoms `a` and `b` are already bonded in the pattern.

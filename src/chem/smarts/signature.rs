@@ -68,6 +68,21 @@ pub fn possible(query: u64, present: u64) -> bool {
     PROPERTIES.iter().all(|&p| both & mask(p) != 0)
 }
 
+/// What a pattern atom with `bonds` pattern bonds accepts for its shape alone: every pattern
+/// bond takes a molecule bond of its own, so at least that many neighbours; and one on a
+/// pattern cycle lies on a molecule cycle, so in a ring.
+pub fn of_shape(bonds: usize, on_cycle: bool) -> u64 {
+    let (start, len) = DEGREE;
+    let fewer: u64 = (0..bonds.min(len as usize - 1)).fold(0, |m, d| m | bit(DEGREE, d));
+    debug_assert!(fewer & !mask((start, len)) == 0);
+    let shape = ANY & !fewer;
+    if on_cycle {
+        shape & only(RING, 1)
+    } else {
+        shape
+    }
+}
+
 /// What `expr` can accept; `recursive(r)` gives the bits the first atom of recursive pattern
 /// `r` accepts (an atom passing `$(...)` passes that pattern's first atom).
 pub fn of_expr(expr: &AtomExpr, recursive: &dyn Fn(usize) -> u64) -> u64 {
@@ -143,6 +158,14 @@ mod tests {
         let many = of_atom(false, -3, 5, 7, 9, false);
         assert!(accepts(of_expr(&prim(AtomPrim::TotalH(4)), &none), many));
         assert!(accepts(of_expr(&prim(AtomPrim::Charge(-2)), &none), many));
+        // Shape: three pattern bonds need three neighbours; a pattern cycle needs a ring.
+        assert!(!accepts(of_shape(3, false), nh));
+        assert!(accepts(of_shape(2, true), nh));
+        assert!(!accepts(
+            of_shape(1, true),
+            of_atom(false, 0, 3, 1, 4, false)
+        ));
+        assert!(accepts(of_shape(9, false), many));
         assert!(possible(ANY, nh));
         assert!(!possible(only(RING, 0), nh));
     }
