@@ -172,10 +172,23 @@ fn run() -> Result<(), Box<dyn std::error::Error>> {
             .and_then(|i| args.get(i + 1))
     };
     let excluded: HashSet<String> = match option("--exclude") {
-        Some(other) => read_rows(other, false)?
-            .into_iter()
-            .filter_map(|(smiles, ..)| key(&smiles).ok())
-            .collect(),
+        Some(other) => {
+            let mut reader = csv::ReaderBuilder::new()
+                .comment(Some(b'#'))
+                .from_path(other)?;
+            let c = reader
+                .headers()?
+                .iter()
+                .position(|h| h == "smiles")
+                .ok_or(format!("{other} has no 'smiles' column"))?;
+            let mut keys = HashSet::new();
+            for record in reader.records() {
+                if let Ok(k) = key(&record?[c]) {
+                    keys.insert(k);
+                }
+            }
+            keys
+        }
         None => HashSet::new(),
     };
     let rows: Vec<Row> = read_rows(file, args.iter().any(|a| a == "--handbook"))?
