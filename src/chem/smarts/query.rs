@@ -146,7 +146,10 @@ pub struct QueryGraph {
 impl QueryGraph {
     /// Builds the matching steps once all bonds are known.
     pub(crate) fn plan(&mut self) {
-        self.screen(&[]);
+        // Screens that let everything through until `screen` is given the `$(...)` graphs
+        // (the reader does that once the whole pattern is read).
+        self.elements = vec![u128::MAX; self.atoms.len()];
+        self.signatures = vec![signature::ANY; self.atoms.len()];
         self.steps = (0..self.atoms.len())
             .map(|k| {
                 let mut earlier = self
@@ -191,26 +194,31 @@ impl QueryGraph {
     /// bridge: removing it leaves its ends connected). Patterns are small; this runs once.
     fn atoms_on_cycles(&self) -> Vec<bool> {
         let n = self.atoms.len();
+        let mut around: Vec<Vec<(usize, usize)>> = vec![Vec::new(); n];
+        for (i, q) in self.bonds.iter().enumerate() {
+            if q.a < n && q.b < n {
+                around[q.a].push((q.b, i));
+                around[q.b].push((q.a, i));
+            }
+        }
         let mut on_cycle = vec![false; n];
+        let (mut seen, mut stack) = (vec![false; n], Vec::new());
         for (skip, q) in self.bonds.iter().enumerate() {
-            let mut seen = vec![false; n];
-            let mut stack = vec![q.a];
+            if q.a >= n || q.b >= n || (on_cycle[q.a] && on_cycle[q.b]) {
+                continue;
+            }
+            seen.iter_mut().for_each(|s| *s = false);
             seen[q.a] = true;
+            stack.push(q.a);
             while let Some(a) = stack.pop() {
-                for (i, r) in self.bonds.iter().enumerate() {
-                    let next = match (r.a == a, r.b == a) {
-                        _ if i == skip => continue,
-                        (true, _) => r.b,
-                        (_, true) => r.a,
-                        _ => continue,
-                    };
-                    if next < n && !seen[next] {
+                for &(next, i) in &around[a] {
+                    if i != skip && !seen[next] {
                         seen[next] = true;
                         stack.push(next);
                     }
                 }
             }
-            if q.b < n && seen[q.b] {
+            if seen[q.b] {
                 on_cycle[q.a] = true;
                 on_cycle[q.b] = true;
             }
