@@ -17,6 +17,10 @@ use phdose::cli::{Cli, Command};
 use phdose::partition::logp::crippen_logp;
 use phdose::store::Store;
 
+/// The allocator the phdose binary ships with (src/main.rs), so the figures are the program's.
+#[global_allocator]
+static GLOBAL: mimalloc::MiMalloc = mimalloc::MiMalloc;
+
 fn calibration_smiles() -> Vec<String> {
     let path = concat!(
         env!("CARGO_MANIFEST_DIR"),
