@@ -181,20 +181,18 @@ impl Profile {
             atom: s.atom,
             group: s.group.clone(),
         };
-        if readings.acid.is_none() {
-            readings.acid = neutral
-                .iter()
-                .filter(|s| s.kind == Kind::Acid)
-                .min_by(|a, b| a.pka.total_cmp(&b.pka))
-                .map(|s| as_reading(s));
-        }
-        if readings.base.is_none() {
-            readings.base = neutral
-                .iter()
-                .filter(|s| s.kind == Kind::Base)
-                .max_by(|a, b| a.pka.total_cmp(&b.pka))
-                .map(|s| as_reading(s));
-        }
+        // As for sites: the lowest acid constant, the highest base constant.
+        let pick = |kind: Kind| {
+            let of_kind = neutral.iter().filter(|s| s.kind == kind);
+            let by_pka = |a: &&&Site, b: &&&Site| a.pka.total_cmp(&b.pka);
+            match kind {
+                Kind::Acid => of_kind.min_by(by_pka),
+                Kind::Base => of_kind.max_by(by_pka),
+            }
+            .map(|s| as_reading(s))
+        };
+        readings.acid = readings.acid.or_else(|| pick(Kind::Acid));
+        readings.base = readings.base.or_else(|| pick(Kind::Base));
         readings
     }
 

@@ -154,20 +154,9 @@ impl<'a, 'm> Context<'a, 'm> {
         match graph.steps[k].parent {
             Some((p, qb)) => {
                 for &(m, b) in target.neighbours_of(state.map[p]) {
-                    if !bond_ok(target, &graph.bonds[qb].expr, b) {
-                        continue;
-                    }
-                    self.steps += 1;
-                    if self.steps > STEP_BUDGET {
-                        return true;
-                    }
-                    if state.used[m]
-                        || !target.element_in(m, elements)
-                        || !signature::accepts(signature, target.signature[m])
+                    if bond_ok(target, &graph.bonds[qb].expr, b)
+                        && self.candidate(state, k, m, (elements, signature), report)
                     {
-                        continue;
-                    }
-                    if self.place(state, k, m, report) {
                         return true;
                     }
                 }
@@ -178,23 +167,39 @@ impl<'a, 'm> Context<'a, 'm> {
                     None => 0..target.atom_count(),
                 };
                 for m in range {
-                    self.steps += 1;
-                    if self.steps > STEP_BUDGET {
-                        return true;
-                    }
-                    if state.used[m]
-                        || !target.element_in(m, elements)
-                        || !signature::accepts(signature, target.signature[m])
-                    {
-                        continue;
-                    }
-                    if self.place(state, k, m, report) {
+                    if self.candidate(state, k, m, (elements, signature), report) {
                         return true;
                     }
                 }
             }
         }
         false
+    }
+
+    /// One candidate `m` for pattern atom `k` (its parent bond already passed): counted
+    /// against the step budget, screened (free, element, coarse properties), then placed.
+    /// Returns `true` when the search is to stop.
+    #[inline]
+    fn candidate(
+        &mut self,
+        state: &mut State,
+        k: usize,
+        m: usize,
+        (elements, signature): (u128, u64),
+        report: &mut dyn FnMut(&[usize]) -> bool,
+    ) -> bool {
+        self.steps += 1;
+        if self.steps > STEP_BUDGET {
+            return true;
+        }
+        let target = self.target;
+        if state.used[m]
+            || !target.element_in(m, elements)
+            || !signature::accepts(signature, target.signature[m])
+        {
+            return false;
+        }
+        self.place(state, k, m, report)
     }
 
     /// Tries molecule atom `m` for pattern atom `k` (its parent bond and the cheap screens
