@@ -30,6 +30,16 @@ pub struct Portions {
 }
 
 impl Portions {
+    /// No portion yet, for `n` solutes.
+    fn empty(n: usize) -> Portions {
+        Portions {
+            states: Vec::new(),
+            aqueous_mol: vec![0.0; n],
+            organic_mol: vec![0.0; n],
+            co2_released_mol: 0.0,
+        }
+    }
+
     /// Share of solute `i` in the aqueous fraction.
     pub fn fraction_aqueous(&self, i: usize) -> f64 {
         let total = self.aqueous_mol[i] + self.organic_mol[i];
@@ -69,12 +79,7 @@ pub fn wash(
     }
     let n = first.aqueous.solutes.len();
     let mut layers = first.clone();
-    let mut out = Portions {
-        states: Vec::new(),
-        aqueous_mol: vec![0.0; n],
-        organic_mol: vec![0.0; n],
-        co2_released_mol: 0.0,
-    };
+    let mut out = Portions::empty(n);
     for k in 0..count {
         let state = equilibrate(&layers, conditions)?;
         for (i, s) in state.shares.iter().enumerate() {
@@ -108,12 +113,7 @@ pub fn extract(first: &TwoLayers, count: u32, conditions: &Conditions) -> Result
     check_count(count)?;
     let n = first.aqueous.solutes.len();
     let mut layers = first.clone();
-    let mut out = Portions {
-        states: Vec::new(),
-        aqueous_mol: vec![0.0; n],
-        organic_mol: vec![0.0; n],
-        co2_released_mol: 0.0,
-    };
+    let mut out = Portions::empty(n);
     for _ in 0..count {
         let state = equilibrate(&layers, conditions)?;
         let carbon = &state.equilibrium.carbonate;
