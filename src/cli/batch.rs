@@ -152,10 +152,11 @@ impl Rows {
     /// disk) are returned; malformed rows are entries with their error set.
     pub fn next_entry(&mut self) -> Result<Option<Entry>> {
         let mut text = String::new();
+        let json = matches!(self.inner, RowsInner::Jsonl(_));
         loop {
             match &mut self.inner {
                 RowsInner::Done => return Ok(None),
-                RowsInner::Lines(src) => {
+                RowsInner::Lines(src) | RowsInner::Jsonl(src) => {
                     text.clear();
                     if read_line_lossy(src, &mut text)? == 0 {
                         return Ok(None);
@@ -165,24 +166,15 @@ impl Rows {
                         return Ok(Some(too_long(self.line)));
                     }
                     let t = text.trim();
-                    if t.is_empty() || t.starts_with('#') {
+                    // Blank lines are skipped in both; `#` starts a comment in plain lists.
+                    if t.is_empty() || (!json && t.starts_with('#')) {
                         continue;
                     }
-                    return Ok(Some(Entry::ok(t)));
-                }
-                RowsInner::Jsonl(src) => {
-                    text.clear();
-                    if read_line_lossy(src, &mut text)? == 0 {
-                        return Ok(None);
-                    }
-                    self.line += 1;
-                    if text.trim_end() == TOO_LONG {
-                        return Ok(Some(too_long(self.line)));
-                    }
-                    if text.trim().is_empty() {
-                        continue;
-                    }
-                    return Ok(Some(json_entry(&text, self.line)));
+                    return Ok(Some(if json {
+                        json_entry(&text, self.line)
+                    } else {
+                        Entry::ok(t)
+                    }));
                 }
                 RowsInner::Csv {
                     reader,
