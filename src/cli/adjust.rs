@@ -8,7 +8,7 @@ use crate::acidity::Handbook;
 use crate::equilibrium::{Activity, Co2Mode, Conditions};
 use crate::error::{Error, ParseError, Result};
 use crate::report::{self, sig};
-use crate::units::{self, fmt_mass, fmt_moles, fmt_ph, fmt_volume};
+use crate::units::{self, fmt_moles, fmt_ph, fmt_volume};
 use crate::workup::adjust::{Adjustment, Request, SoluteInput, adjust};
 use crate::workup::adjust_layers::{OrganicRequest, adjust_with_organic};
 
@@ -269,11 +269,8 @@ struct SoluteRow {
 }
 
 fn dose_row(a: &Adjustment) -> DoseRow {
-    let measure = match (a.stock_volume_ml, a.reagent_mass_g) {
-        (Some(ml), _) => format!("{} of {} {}", fmt_volume(ml / 1e3), a.stock, a.reagent),
-        (None, Some(g)) => format!("{} of solid {}", fmt_mass(g), a.reagent),
-        (None, None) => String::new(),
-    };
+    let measure = report::dose_measure(a.stock_volume_ml, a.reagent_mass_g, &a.stock, &a.reagent)
+        .unwrap_or_default();
     DoseRow {
         target_ph: fmt_ph(a.target_ph),
         reagent: format!("{} ({})", a.reagent, a.stock),

@@ -10,7 +10,7 @@ use crate::cli::pka::{PkaResult, annotate};
 use crate::equilibrium::{Activity, Co2Mode, Conditions, Reagent};
 use crate::error::Result;
 use crate::report;
-use crate::units::{Amount, fmt_mass, fmt_moles, fmt_ph, fmt_volume};
+use crate::units::{Amount, fmt_moles, fmt_ph, fmt_volume};
 use crate::workup::adjust::{Adjustment, Request, SoluteInput, adjust};
 
 #[derive(Debug, clap::Args)]
@@ -124,11 +124,9 @@ fn text(demo: &Demo) -> String {
     }
     for (i, w) in demo.washes.iter().enumerate() {
         let r = &w.result;
-        let measure = match (r.stock_volume_ml, r.reagent_mass_g) {
-            (Some(ml), _) => format!("{} of {} {}", fmt_volume(ml / 1e3), r.stock, r.reagent),
-            (_, Some(g)) => format!("{} of solid {}", fmt_mass(g), r.reagent),
-            _ => String::new(),
-        };
+        let measure =
+            report::dose_measure(r.stock_volume_ml, r.reagent_mass_g, &r.stock, &r.reagent)
+                .unwrap_or_default();
         out += &format!(
             "\nWash {}: {}\n  add {} ({}) to reach pH {} (layer now {})\n",
             i + 1,

@@ -7,7 +7,7 @@ use crate::acidity::Handbook;
 use crate::equilibrium::{Activity, Conditions};
 use crate::error::Result;
 use crate::report::{self, sig};
-use crate::units::{self, fmt_mass, fmt_moles, fmt_ph, fmt_volume};
+use crate::units::{self, fmt_moles, fmt_ph, fmt_volume};
 use crate::workup::adjust::SoluteInput;
 use crate::workup::plan::{Plan, PlanRequest, Step, plan};
 
@@ -76,16 +76,13 @@ pub fn request(args: &Args) -> Result<PlanRequest> {
 }
 
 fn measure(step: &Step) -> String {
-    match (step.stock_volume_ml, step.reagent_mass_g) {
-        (Some(ml), _) => format!(
-            "{} of {} {}",
-            fmt_volume(ml / 1e3),
-            step.stock,
-            step.reagent
-        ),
-        (None, Some(g)) => format!("{} of solid {}", fmt_mass(g), step.reagent),
-        (None, None) => String::new(),
-    }
+    report::dose_measure(
+        step.stock_volume_ml,
+        step.reagent_mass_g,
+        &step.stock,
+        &step.reagent,
+    )
+    .unwrap_or_default()
 }
 
 /// The plan as a chemist follows it at the bench.
@@ -171,11 +168,9 @@ pub fn table(p: &Plan) -> String {
         .collect();
     out += &report::grid(header, rows);
     for r in &p.recoveries {
-        let amount = match (r.stock_volume_ml, r.reagent_mass_g) {
-            (Some(ml), _) => format!("{} of {} {}", fmt_volume(ml / 1e3), r.stock, r.reagent),
-            (None, Some(g)) => format!("{} of solid {}", fmt_mass(g), r.reagent),
-            _ => r.reagent.clone(),
-        };
+        let amount =
+            report::dose_measure(r.stock_volume_ml, r.reagent_mass_g, &r.stock, &r.reagent)
+                .unwrap_or_else(|| r.reagent.clone());
         out += &format!(
             "Recover {} from {}: {} ({}); {}; {} % extracted, {} % of the start overall.\n",
             r.smiles.join(", "),

@@ -74,6 +74,26 @@ pub fn sig(x: f64, sig: usize) -> String {
     format!("{x:.decimals$}")
 }
 
+/// What to measure out for a dose, as it is read at the bench: `4.12 mL of 1M citric_acid`,
+/// `10.0 mL of saturated nahco3`, `527 mg of solid naoh`; `None` for a dose known only as an
+/// amount of substance.
+pub fn dose_measure(
+    stock_volume_ml: Option<f64>,
+    mass_g: Option<f64>,
+    stock: &str,
+    reagent: &str,
+) -> Option<String> {
+    use crate::units::{fmt_mass, fmt_volume};
+    match (stock_volume_ml, mass_g) {
+        (Some(ml), _) => {
+            let stock = if stock == "sat" { "saturated" } else { stock };
+            Some(format!("{} of {stock} {reagent}", fmt_volume(ml / 1e3)))
+        }
+        (None, Some(g)) => Some(format!("{} of solid {reagent}", fmt_mass(g))),
+        (None, None) => None,
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

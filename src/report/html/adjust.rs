@@ -101,18 +101,8 @@ fn amount_text(amount: &Amount) -> String {
 
 /// What to weigh or measure: `3.12 mL of 1M naoh`, `262 mg of solid nahco3`.
 fn measure(a: &Adjustment) -> String {
-    match (a.stock_volume_ml, a.reagent_mass_g) {
-        (Some(ml), _) => {
-            let stock = if a.stock == "sat" {
-                "saturated"
-            } else {
-                &a.stock
-            };
-            format!("{} of {stock} {}", fmt_volume(ml / 1e3), a.reagent)
-        }
-        (None, Some(g)) => format!("{} of solid {}", fmt_mass(g), a.reagent),
-        (None, None) => format!("{} of {}", fmt_moles(a.reagent_mol), a.reagent),
-    }
+    crate::report::dose_measure(a.stock_volume_ml, a.reagent_mass_g, &a.stock, &a.reagent)
+        .unwrap_or_else(|| format!("{} of {}", fmt_moles(a.reagent_mol), a.reagent))
 }
 
 fn summary_line(a: &Adjustment) -> String {

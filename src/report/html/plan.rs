@@ -8,7 +8,7 @@ use super::figure::ionization_figure;
 use super::{Block, Cell, Report, Section, Table, merge_cautions};
 use crate::report::ionization::Compound;
 use crate::report::sig;
-use crate::units::{fmt_mass, fmt_moles, fmt_ph, fmt_volume};
+use crate::units::{fmt_moles, fmt_ph, fmt_volume};
 use crate::workup::plan::{Plan, Step};
 use crate::workup::plan_recover::Recovery;
 
@@ -116,14 +116,8 @@ fn measure(
     stock: &str,
     reagent: &str,
 ) -> String {
-    match (stock_volume_ml, mass_g) {
-        (Some(ml), _) => {
-            let stock = if stock == "sat" { "saturated" } else { stock };
-            format!("{} of {stock} {reagent}", fmt_volume(ml / 1e3))
-        }
-        (None, Some(g)) => format!("{} of solid {reagent}", fmt_mass(g)),
-        (None, None) => reagent.to_string(),
-    }
+    crate::report::dose_measure(stock_volume_ml, mass_g, stock, reagent)
+        .unwrap_or_else(|| reagent.to_string())
 }
 
 fn step_measure(s: &Step) -> String {
