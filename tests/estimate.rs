@@ -397,3 +397,107 @@ fn non_titrating_groups_are_never_sites() {
         );
     }
 }
+
+/// Plain alkyl amines sit on a plateau near 10.6 (primary), 11.0 (secondary) and 10.7
+/// (tertiary) however large or branched the alkyl groups: the Taft sum is floored there.
+const ALKYL_PLATEAU: &[Case] = &[
+    (
+        "CC(C)N",
+        Kind::Base,
+        10.63,
+        0.2,
+        "isopropylamine; Perrin 1965 (from memory)",
+    ),
+    (
+        "CC(C)(C)N",
+        Kind::Base,
+        10.68,
+        0.2,
+        "tert-butylamine; Perrin 1965 (from memory)",
+    ),
+    (
+        "CCNCC",
+        Kind::Base,
+        10.98,
+        0.2,
+        "diethylamine; Perrin 1965 (from memory)",
+    ),
+    (
+        "CCCN(CCC)CCC",
+        Kind::Base,
+        10.65,
+        0.2,
+        "tripropylamine; Perrin 1965 (from memory)",
+    ),
+];
+
+#[test]
+fn plain_alkyl_amines_stay_on_their_plateau() {
+    check(ALKYL_PLATEAU);
+    // A branched chain does not push the estimate past the plateau; a polar group still
+    // lowers it by the Taft equation.
+    let branched = main_site("CCC(N)(CC)CC", Kind::Base);
+    assert!(branched.pka < 10.8, "{}", branched.source);
+    assert!(
+        branched.source.contains("alkyl plateau"),
+        "{}",
+        branched.source
+    );
+    let polar = main_site("NCCOC", Kind::Base);
+    assert!(!polar.source.contains("alkyl plateau"), "{}", polar.source);
+}
+
+#[test]
+fn ring_substituents_of_an_aryl_group_reach_a_taft_site() {
+    // 1-(3-nitrophenyl)ethylamine against 1-phenylethylamine: the aryl group's sigma* grows
+    // by 0.80 x sigma_m(NO2) 0.71 (data/series.csv aryl_sigma_star), damped once (0.4) on the
+    // way to the N, times the primary ammonium rho 3.14. An independent calculation of the
+    // difference the tables must give.
+    let plain = main_site("CC(N)c1ccccc1", Kind::Base);
+    let nitro = main_site("CC(N)c1cccc([N+](=O)[O-])c1", Kind::Base);
+    let expected = 0.80 * 0.71 * 0.4 * 3.14;
+    assert!(
+        ((plain.pka - nitro.pka) - expected).abs() < 0.05,
+        "{:.2} - {:.2} vs {expected:.2}",
+        plain.pka,
+        nitro.pka
+    );
+    // The same reaches through a benzyl group on a secondary amine (one more damping step).
+    let benzyl = main_site("CNCc1ccccc1", Kind::Base);
+    let nitrobenzyl = main_site("CNCc1ccc([N+](=O)[O-])cc1", Kind::Base);
+    assert!(nitrobenzyl.pka < benzyl.pka - 0.5, "{}", nitrobenzyl.source);
+}
+
+#[test]
+fn n_n_diethylanilines_start_from_their_own_parent() {
+    // N,N-diethylaniline 6.56 (Perrin 1965, from memory), well above N,N-dimethylaniline.
+    let parent = main_site("CCN(CC)c1ccccc1", Kind::Base);
+    assert!((parent.pka - 6.56).abs() < 0.05, "{}", parent.source);
+    // Ring substituents by the N,N-dialkylanilinium series (rho 3.46 with sigma-minus for
+    // para groups; chloro 0.19, Hansch, Leo & Taft 1991, from memory).
+    let chloro = main_site("CCN(CC)c1ccc(Cl)cc1", Kind::Base);
+    let expected = 6.56 - 3.46 * 0.19;
+    assert!((chloro.pka - expected).abs() < 0.05, "{}", chloro.source);
+    // One methyl on the N keeps the N,N-dimethylaniline row.
+    let methyl = main_site("CCN(C)c1ccccc1", Kind::Base);
+    assert!(methyl.group.contains("N-dialkyl)"), "{}", methyl.group);
+}
+
+#[test]
+fn substituents_no_series_can_correct_widen_the_range() {
+    // A 1,3-diketone has no substituent series: its aryl and halogen neighbours cannot be
+    // corrected for, so the reported range grows with them.
+    let plain = main_site("CC(=O)CC(C)=O", Kind::Acid);
+    let substituted = main_site("CC(=O)C(Cl)C(=O)c1ccccc1", Kind::Acid);
+    assert!(
+        substituted.pka_high - substituted.pka_low > plain.pka_high - plain.pka_low + 1.0,
+        "{} / {}",
+        plain.source,
+        substituted.source
+    );
+    assert!(
+        substituted.source.contains("without a correction"),
+        "{}",
+        substituted.source
+    );
+}

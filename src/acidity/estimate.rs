@@ -13,7 +13,7 @@ use super::lookup::Lookup;
 use super::sites::{Site, find_sites_in};
 use super::substituent::{Constant, Series, SeriesRow, Substituent, SubstituentRow};
 use super::{hammett, taft};
-use crate::chem::molecule::Molecule;
+use crate::chem::molecule::{Molecule, Order};
 use crate::chem::smarts::Target;
 use crate::error::{Error, Result};
 
@@ -32,6 +32,10 @@ const WIDEN_UNKNOWN: f64 = 0.40;
 /// Net corrections beyond this many pKa units are extrapolations: widen by a further share.
 const EXTRAPOLATION_START: f64 = 3.0;
 const WIDEN_EXTRAPOLATION: f64 = 0.15;
+
+/// The series row whose rho turns the Hammett sigma sum of an aryl group's ring substituents
+/// into a change of that group's sigma* (data/series.csv).
+const ARYL_SIGMA_STAR: &str = "aryl_sigma_star";
 
 /// One substituent's contribution.
 #[derive(Debug, Clone, PartialEq)]
@@ -140,6 +144,11 @@ impl Estimator {
             .ok_or_else(|| bad("no correction can be computed for the parent".into()))
     }
 
+    /// The series that carries aryl ring substituents into sigma* (`ARYL_SIGMA_STAR`).
+    fn aryl(&self) -> Option<&Series> {
+        self.series.iter().find(|s| s.name == ARYL_SIGMA_STAR)
+    }
+
     fn correction(
         &self,
         mol: &Molecule,
@@ -150,7 +159,7 @@ impl Estimator {
         match series.constant {
             Constant::Hammett => hammett::correct(mol, site, series, look),
             Constant::HammettFive => hammett::correct_five(mol, site, series, look),
-            Constant::Taft => Some(taft::correct(mol, site, series, look)),
+            Constant::Taft => Some(taft::correct(mol, site, series, self.aryl(), look)),
         }
     }
 
@@ -158,6 +167,14 @@ impl Estimator {
     fn apply(&self, mol: &Molecule, site: &mut Site, group: &Group, g: usize, look: &Lookup) {
         let Some(Some(link)) = self.links.get(g) else {
             site.source = format!("estimate: {}; {}", group.name, group.source);
+            let n = uncorrected_substituents(mol, group, site.atom, look);
+            if n > 0 {
+                let widen = n as f64 * WIDEN_UNKNOWN;
+                site.pka_low -= widen;
+                site.pka_high += widen;
+                site.source
+                    .push_str(&format!("; {n} substituent(s) without a correction"));
+            }
             return;
         };
         let series = &self.series[link.series];
@@ -180,6 +197,44 @@ impl Estimator {
         site.ring_corrected = series.constant != Constant::Taft;
         site.source = describe(group, series, &c, link.parent.as_ref());
     }
+}
+
+/// Substituents on the atoms of a group that has no series, so the estimate cannot correct for
+/// them: atoms bonded to the group's matched atoms that are neither part of the match nor a
+/// plain alkyl carbon (saturated, bonded to no heteroatom or unsaturated atom besides the
+/// group). Each widens the range as a substituent without constants does in a series.
+fn uncorrected_substituents(mol: &Molecule, group: &Group, site: usize, look: &Lookup) -> usize {
+    let mut found: Option<Vec<usize>> = None;
+    group.pattern.for_each_match(look.target(), |m| {
+        if found.is_none() && m[group.site] == site {
+            found = Some(m.to_vec());
+        }
+    });
+    let Some(matched) = found else {
+        return 0;
+    };
+    let saturated_carbon = |a: usize| {
+        mol.atoms[a].element == 6
+            && !mol.atoms[a].aromatic
+            && mol.adjacency[a]
+                .iter()
+                .all(|&(_, b)| mol.bonds[b].order == Order::Single)
+    };
+    let plain_alkyl = |x: usize| {
+        saturated_carbon(x)
+            && mol.adjacency[x]
+                .iter()
+                .all(|&(y, _)| matched.contains(&y) || saturated_carbon(y))
+    };
+    let mut seen: Vec<usize> = Vec::new();
+    for &a in &matched {
+        for &(x, _) in &mol.adjacency[a] {
+            if !matched.contains(&x) && !seen.contains(&x) && !plain_alkyl(x) {
+                seen.push(x);
+            }
+        }
+    }
+    seen.len()
 }
 
 /// Half-widths below and above a corrected estimate, as a nominal 90 % interval: the group's

@@ -17,6 +17,30 @@ const MAX_REACH: usize = 3;
 /// within reach.
 pub fn correct(mol: &Molecule, site: usize, series: &Series, look: &Lookup) -> Option<Correction> {
     let (ipso, came_from) = nearest_ring_atom(mol, site)?;
+    ring_terms(mol, ipso, came_from, site, series, look)
+}
+
+/// The Hammett terms of the substituents on the six-membered aromatic ring at `ipso`, seen
+/// from `came_from` (an aryl group in a Taft chain: its ring substituents, sigma by position
+/// from the atom that bears the chain). `None` when `ipso` is not in such a ring.
+pub fn aryl_terms(
+    mol: &Molecule,
+    ipso: usize,
+    came_from: usize,
+    series: &Series,
+    look: &Lookup,
+) -> Option<Correction> {
+    ring_terms(mol, ipso, Some(came_from), came_from, series, look)
+}
+
+fn ring_terms(
+    mol: &Molecule,
+    ipso: usize,
+    came_from: Option<usize>,
+    site: usize,
+    series: &Series,
+    look: &Lookup,
+) -> Option<Correction> {
     let ring =
         mol.rings.rings.iter().find(|r| {
             r.len() == 6 && r.contains(&ipso) && r.iter().all(|&a| mol.atoms[a].aromatic)

@@ -62,6 +62,9 @@ pub struct Series {
     pub attenuation: f64,
     /// Standard deviation of the series' equation, pK units.
     pub sd: f64,
+    /// Lowest sum of sigma* the series takes (Taft series of ammonium ions: plain alkyl
+    /// groups stop raising the pKa beyond a plateau).
+    pub sigma_floor: Option<f64>,
     pub source: String,
 }
 
@@ -95,6 +98,9 @@ pub struct SeriesRow {
     /// Standard deviation of the equation (pK units); missing means `DEFAULT_SD`.
     #[serde(default)]
     pub sd: Option<f64>,
+    /// Lowest sum of sigma* (Taft series only); missing means none.
+    #[serde(default)]
+    pub sigma_floor: Option<f64>,
 }
 
 impl SubstituentRow {
@@ -151,6 +157,9 @@ impl SeriesRow {
             }
             (_, a) => a.unwrap_or(0.0),
         };
+        if self.sigma_floor.is_some() && constant != Constant::Taft {
+            return Err(bad("sigma_floor belongs to taft series only".into()));
+        }
         let sd = match self.sd {
             Some(sd) if sd.is_finite() && sd >= 0.0 => sd,
             Some(sd) => return Err(bad(format!("sd {sd} must be finite and >= 0"))),
@@ -165,6 +174,7 @@ impl SeriesRow {
             ortho_shift: self.ortho_shift.unwrap_or(0.0),
             attenuation,
             sd,
+            sigma_floor: self.sigma_floor,
             source: self.source,
         })
     }

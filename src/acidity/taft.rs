@@ -4,6 +4,7 @@
 //! the series' attenuation per intervening carbon (Perrin, Dempsey & Serjeant 1981).
 
 use super::estimate::{Correction, Term};
+use super::hammett;
 use super::lookup::Lookup;
 use super::substituent::{Position, Series};
 use crate::chem::molecule::{Molecule, Order};
@@ -14,8 +15,16 @@ const ALKYL_STEP: f64 = -0.10;
 /// Bonds followed outwards from the centre; beyond this the damped effect is negligible.
 const MAX_DEPTH: usize = 4;
 
-/// The Taft terms of the site at `site`.
-pub fn correct(mol: &Molecule, site: usize, series: &Series, look: &Lookup) -> Correction {
+/// The Taft terms of the site at `site`. With `aryl` (the series that turns an aryl group's
+/// ring substituents into a change of its sigma*), substituted aryl groups count with their
+/// ring substituents.
+pub fn correct(
+    mol: &Molecule,
+    site: usize,
+    series: &Series,
+    aryl: Option<&Series>,
+    look: &Lookup,
+) -> Correction {
     let centre = centre_atom(mol, site);
     let mut visited = vec![false; mol.atoms.len()];
     visited[site] = true;
@@ -29,6 +38,7 @@ pub fn correct(mol: &Molecule, site: usize, series: &Series, look: &Lookup) -> C
             mol,
             look,
             attenuation: series.attenuation,
+            aryl,
             visited: &mut visited,
             unknown: 0,
         };
@@ -45,6 +55,20 @@ pub fn correct(mol: &Molecule, site: usize, series: &Series, look: &Lookup) -> C
             stand_in: false,
             inductive: None,
         });
+    }
+    if let Some(floor) = series.sigma_floor {
+        let sum: f64 = c.terms.iter().map(|t| t.sigma).sum();
+        if sum < floor {
+            let sigma = floor - sum;
+            c.terms.push(Term {
+                label: "alkyl plateau".to_string(),
+                sigma,
+                shift: -series.rho * sigma,
+                ortho: false,
+                stand_in: false,
+                inductive: None,
+            });
+        }
     }
     c
 }
@@ -75,6 +99,7 @@ struct Walk<'m, 'v> {
     mol: &'m Molecule,
     look: &'m Lookup<'m, 'm>,
     attenuation: f64,
+    aryl: Option<&'m Series>,
     visited: &'v mut Vec<bool>,
     unknown: usize,
 }
@@ -87,7 +112,7 @@ impl Walk<'_, '_> {
             .at(atom, Some(from), Position::Attached)
             .and_then(|row| row.sigma_star)
         {
-            return s;
+            return s + self.ring_substituents(atom, from);
         }
         if !self.saturated_carbon(atom) {
             self.unknown += 1;
@@ -109,6 +134,33 @@ impl Walk<'_, '_> {
             }
         }
         sum
+    }
+
+    /// The sigma* change of a tabulated group that is an aryl ring (`atom` aromatic) or a
+    /// saturated carbon bearing one (benzyl, damped once) from that ring's own substituents:
+    /// `aryl.rho` times their Hammett sigma sum, seen from the atom that bears the chain.
+    fn ring_substituents(&mut self, atom: usize, from: usize) -> f64 {
+        let Some(aryl) = self.aryl else {
+            return 0.0;
+        };
+        let (ipso, came_from, damping) = if self.mol.atoms[atom].aromatic {
+            (atom, from, 1.0)
+        } else if self.saturated_carbon(atom) {
+            let mut rings = self.mol.adjacency[atom]
+                .iter()
+                .filter(|&&(x, _)| x != from && self.mol.atoms[x].aromatic);
+            match (rings.next(), rings.next()) {
+                (Some(&(x, _)), None) => (x, atom, self.attenuation),
+                _ => return 0.0,
+            }
+        } else {
+            return 0.0;
+        };
+        let Some(c) = hammett::aryl_terms(self.mol, ipso, came_from, aryl, self.look) else {
+            return 0.0;
+        };
+        self.unknown += c.unknown;
+        damping * aryl.rho * c.terms.iter().map(|t| t.sigma).sum::<f64>()
     }
 
     fn saturated_carbon(&self, atom: usize) -> bool {

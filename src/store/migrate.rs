@@ -39,6 +39,11 @@ pub const MIGRATIONS: &[(u32, &str, &str)] = &[
         "series_sd",
         include_str!("../../migrations/0007_series_sd.sql"),
     ),
+    (
+        8,
+        "series_floor",
+        include_str!("../../migrations/0008_series_floor.sql"),
+    ),
 ];
 
 /// Applies, in order, every migration the store has not recorded (by version, not by the

@@ -68,7 +68,7 @@ pub fn refresh(tx: &Transaction) -> Result<()> {
     }
     let mut insert = tx.prepare(
         "INSERT INTO builtin_series (name, constant, rho, base, para, ortho_shift, attenuation,
-         source, sd) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9)",
+         source, sd, sigma_floor) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10)",
     )?;
     for row in reader(SERIES_CSV).deserialize::<SeriesRow>() {
         let s = row.map_err(csv_error("series.csv"))?;
@@ -81,7 +81,8 @@ pub fn refresh(tx: &Transaction) -> Result<()> {
             s.ortho_shift,
             s.attenuation,
             s.source,
-            s.sd
+            s.sd,
+            s.sigma_floor
         ])?;
     }
     let mut update =
@@ -120,8 +121,8 @@ impl Store {
     /// The series rows.
     pub fn series(&self) -> Result<Vec<SeriesRow>> {
         let mut stmt = self.connection().prepare(
-            "SELECT name, constant, rho, base, para, ortho_shift, attenuation, source, sd
-             FROM builtin_series ORDER BY name",
+            "SELECT name, constant, rho, base, para, ortho_shift, attenuation, source, sd,
+             sigma_floor FROM builtin_series ORDER BY name",
         )?;
         let rows = stmt.query_map([], |r| {
             Ok(SeriesRow {
@@ -134,6 +135,7 @@ impl Store {
                 attenuation: r.get(6)?,
                 source: r.get(7)?,
                 sd: r.get(8)?,
+                sigma_floor: r.get(9)?,
             })
         })?;
         Ok(rows.collect::<std::result::Result<_, _>>()?)
