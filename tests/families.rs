@@ -400,3 +400,40 @@ fn zwitterions_and_strong_acids_read_as_handbooks_list_them() {
     // Dempsey 1979 (from memory).
     assert!((reading(&hb, "OC(=O)CCC(=O)O", Kind::Acid) - 4.21).abs() < 0.5);
 }
+
+#[test]
+fn tetrazole_ring_nitrogens_are_not_read_as_triazole_bases() {
+    // 1H-tetrazole 4.9 (CRC Handbook, from memory; data/measured.csv): one acid site, no
+    // base sites, and the molecule's only constant is that acid's.
+    let hb = Handbook::builtin().unwrap();
+    for smiles in ["c1nnn[nH]1", "Cc1nn[nH]n1", "c1ccc(-c2nnn[nH]2)cc1"] {
+        let p = Profile::new(smiles, &hb).unwrap();
+        let kinds: Vec<Kind> = p.sites.iter().map(|s| s.kind).collect();
+        assert_eq!(kinds, vec![Kind::Acid], "{smiles}: {:?}", p.sites);
+        assert!(
+            (reading(&hb, smiles, Kind::Acid) - 4.9).abs() < 0.6,
+            "{smiles}"
+        );
+    }
+}
+
+#[test]
+fn an_n_hydroxyimide_is_more_acidic_than_a_hydroxamic_acid() {
+    // N-hydroxysuccinimide 6.0 (CRC Handbook, from memory); acetohydroxamic acid 8.7
+    // (Serjeant & Dempsey 1979, from memory).
+    let hb = Handbook::builtin().unwrap();
+    let nhs = main_site(&hb, "O=C1CCC(=O)N1O", Kind::Acid);
+    assert!((nhs.pka - 6.0).abs() < 0.3, "{}", nhs.source);
+    let aha = main_site(&hb, "CC(=O)NO", Kind::Acid);
+    assert!((aha.pka - 8.7).abs() < 0.3, "{}", aha.source);
+}
+
+#[test]
+fn a_para_acylamino_group_does_not_raise_a_phenol_far_above_phenol() {
+    // Paracetamol 9.38 (CRC Handbook, from memory) against phenol 9.99: the acylamino group
+    // enters with sigma_p 0.00 (Hansch, Leo & Taft 1991), so the estimate is phenol's; it
+    // must not come out above phenol, as a donor sigma-minus would make it.
+    let hb = Handbook::builtin().unwrap();
+    let s = main_site(&hb, "CC(=O)Nc1ccc(O)cc1", Kind::Acid);
+    assert!(s.pka <= 10.0 && (s.pka - 9.38).abs() < 0.7, "{}", s.source);
+}
