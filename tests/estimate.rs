@@ -503,3 +503,24 @@ fn substituents_no_series_can_correct_widen_the_range() {
         substituted.source
     );
 }
+
+#[test]
+fn tert_butyl_groups_take_their_own_constants() {
+    // 4-tert-butylphenol 10.23 (Serjeant & Dempsey 1979, from memory) by sigma_p -0.20.
+    let para = main_site("CC(C)(C)c1ccc(O)cc1", Kind::Acid);
+    assert!((para.pka - 10.23).abs() < 0.3, "{}", para.source);
+    // Two ortho tert-butyl groups hinder the phenoxide: each counts with its own sigma_o,
+    // twice methyl's (2,6-dimethylphenol against 2,6-di-tert-butylphenol).
+    let methyls = main_site("Cc1cccc(C)c1O", Kind::Acid);
+    let butyls = main_site("CC(C)(C)c1cccc(C(C)(C)C)c1O", Kind::Acid);
+    assert!(butyls.pka > methyls.pka + 0.5, "{}", butyls.source);
+    // On the pyrrole-type N of a pyrazole an alkyl group stands in for the N-H, tert-butyl
+    // as methyl (1-methylpyrazole 2.06 against pyrazole 2.48; Perrin 1965, from memory).
+    let n_methyl = main_site("Cn1cccn1", Kind::Base);
+    let n_butyl = main_site("CC(C)(C)n1cccn1", Kind::Base);
+    assert!(
+        (n_methyl.pka - n_butyl.pka).abs() < 1e-9,
+        "{}",
+        n_butyl.source
+    );
+}

@@ -198,7 +198,11 @@ pub fn correct_five(
                 // An alkyl group on the pyrrole-type N stands in for its N-H: 1-methylimidazole
                 // 7.06 against imidazole 6.99, 1-methylpyrazole 2.06 against 2.48,
                 // 1-methylbenzimidazole 5.57 against 5.53 (Perrin 1965, from memory).
-                Some(row) if row.name == "alkyl" && mol.atoms[r].element == 7 => {}
+                // (Any alkyl group: a saturated carbon whose sigma_m does not withdraw.)
+                Some(row)
+                    if mol.atoms[r].element == 7
+                        && is_alkyl(mol, x)
+                        && row.sigma_m.is_some_and(|m| m <= 0.0) => {}
                 Some(row) => push(&mut c, row, at),
                 None => c.unknown += 1,
             }
@@ -208,6 +212,16 @@ pub fn correct_five(
     // as the fused aza row already counts those next to the fusion.
     cross_ring(mol, ring, site, series, look, &mut c, false);
     Some(c)
+}
+
+/// A saturated carbon (an alkyl group's first atom).
+fn is_alkyl(mol: &Molecule, atom: usize) -> bool {
+    let a = &mol.atoms[atom];
+    a.element == 6
+        && !a.aromatic
+        && mol.adjacency[atom]
+            .iter()
+            .all(|&(_, b)| mol.bonds[b].order == crate::chem::molecule::Order::Single)
 }
 
 /// Strong ortho/para donors below this sigma compete for one conjugation path.
