@@ -17,9 +17,10 @@ use crate::chem::molecule::{Molecule, Order};
 use crate::chem::smarts::Target;
 use crate::error::{Error, Result};
 
-/// Range widening per unit of |shift| of each correction term: a sigma value and a rho are each
-/// good to about 10 % outside their calibration set (Perrin, Dempsey & Serjeant 1981 quote
-/// estimates as good to a few tenths for one or two substituents; from memory).
+/// Relative error of a sigma value and of a rho outside their calibration sets: each good to
+/// about 10 % (Perrin, Dempsey & Serjeant 1981 quote estimates as good to a few tenths for one
+/// or two substituents; from memory). Each term's sigma errs on its own; the series' rho errs
+/// once for the whole net shift.
 const WIDEN_PER_SHIFT: f64 = 0.10;
 /// The two-sided 90 % point of the normal distribution: ranges are nominal 90 % intervals.
 pub(crate) const Z90: f64 = 1.645;
@@ -238,9 +239,9 @@ fn uncorrected_substituents(mol: &Molecule, group: &Group, site: usize, look: &L
 }
 
 /// Half-widths below and above a corrected estimate, as a nominal 90 % interval: the group's
-/// own documented spread and the method's error (the series' standard deviation and
-/// `WIDEN_PER_SHIFT` of each term's shift, independent, so summed in quadrature) combine in
-/// quadrature; ortho, stand-in, unknown and extrapolation allowances are systematic and add.
+/// own documented spread and the method's error (the series' standard deviation,
+/// `WIDEN_PER_SHIFT` of each term's shift for its sigma, and `WIDEN_PER_SHIFT` of the net shift
+/// for the rho they share, independent, so summed in quadrature) combine in quadrature; ortho, stand-in, unknown and extrapolation allowances are systematic and add.
 /// A site that is its group's parent compound keeps the group's spread.
 fn widen_range(
     group: &Group,
@@ -264,6 +265,8 @@ fn widen_range(
         systematic = (systematic - orthos(p) * WIDEN_ORTHO).max(0.0);
         net -= p.shift();
     }
+    // The rho error scales the net shift as a whole.
+    term_sq += (WIDEN_PER_SHIFT * net).powi(2);
     let from_series_base = parent.is_none() && (series.base - group.pka).abs() > 0.01;
     let corrected = net.abs() > 0.01 || term_sq > 1e-6 || from_series_base;
     let method = if corrected {
