@@ -13,7 +13,7 @@ use super::lookup::Lookup;
 use super::sites::{Site, find_sites_in};
 use super::substituent::{Constant, Series, SeriesRow, Substituent, SubstituentRow};
 use super::{hammett, taft};
-use crate::chem::molecule::{Molecule, Order};
+use crate::chem::molecule::Molecule;
 use crate::chem::smarts::Target;
 use crate::error::{Error, Result};
 
@@ -214,18 +214,11 @@ fn uncorrected_substituents(mol: &Molecule, group: &Group, site: usize, look: &L
     let Some(matched) = found else {
         return 0;
     };
-    let saturated_carbon = |a: usize| {
-        mol.atoms[a].element == 6
-            && !mol.atoms[a].aromatic
-            && mol.adjacency[a]
-                .iter()
-                .all(|&(_, b)| mol.bonds[b].order == Order::Single)
-    };
     let plain_alkyl = |x: usize| {
-        saturated_carbon(x)
+        mol.is_saturated_carbon(x)
             && mol.adjacency[x]
                 .iter()
-                .all(|&(y, _)| matched.contains(&y) || saturated_carbon(y))
+                .all(|&(y, _)| matched.contains(&y) || mol.is_saturated_carbon(y))
     };
     let mut seen: Vec<usize> = Vec::new();
     for &a in &matched {
@@ -241,7 +234,8 @@ fn uncorrected_substituents(mol: &Molecule, group: &Group, site: usize, look: &L
 /// Half-widths below and above a corrected estimate, as a nominal 90 % interval: the group's
 /// own documented spread and the method's error (the series' standard deviation,
 /// `WIDEN_PER_SHIFT` of each term's shift for its sigma, and `WIDEN_PER_SHIFT` of the net shift
-/// for the rho they share, independent, so summed in quadrature) combine in quadrature; ortho, stand-in, unknown and extrapolation allowances are systematic and add.
+/// for the rho they share, independent, so summed in quadrature) combine in quadrature; ortho,
+/// stand-in, unknown and extrapolation allowances are systematic and add.
 /// A site that is its group's parent compound keeps the group's spread.
 fn widen_range(
     group: &Group,

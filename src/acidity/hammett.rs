@@ -201,7 +201,7 @@ pub fn correct_five(
                 // (Any alkyl group: a saturated carbon whose sigma_m does not withdraw.)
                 Some(row)
                     if mol.atoms[r].element == 7
-                        && is_alkyl(mol, x)
+                        && mol.is_saturated_carbon(x)
                         && row.sigma_m.is_some_and(|m| m <= 0.0) => {}
                 Some(row) => push(&mut c, row, at),
                 None => c.unknown += 1,
@@ -212,16 +212,6 @@ pub fn correct_five(
     // as the fused aza row already counts those next to the fusion.
     cross_ring(mol, ring, site, series, look, &mut c, false);
     Some(c)
-}
-
-/// A saturated carbon (an alkyl group's first atom).
-fn is_alkyl(mol: &Molecule, atom: usize) -> bool {
-    let a = &mol.atoms[atom];
-    a.element == 6
-        && !a.aromatic
-        && mol.adjacency[atom]
-            .iter()
-            .all(|&(_, b)| mol.bonds[b].order == crate::chem::molecule::Order::Single)
 }
 
 /// Strong ortho/para donors below this sigma compete for one conjugation path.

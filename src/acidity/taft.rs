@@ -82,12 +82,7 @@ fn centre_atom(mol: &Molecule, site: usize) -> usize {
         let carbonyl = mol.adjacency[c].iter().any(|&(x, b)| {
             x != site && mol.bonds[b].order == Order::Double && mol.atoms[x].element != 6
         });
-        let carbinol = mol.atoms[site].element == 8
-            && mol.atoms[c].element == 6
-            && !mol.atoms[c].aromatic
-            && mol.adjacency[c]
-                .iter()
-                .all(|&(_, b)| mol.bonds[b].order == Order::Single);
+        let carbinol = mol.atoms[site].element == 8 && mol.is_saturated_carbon(c);
         if carbonyl || carbinol {
             return c;
         }
@@ -164,11 +159,6 @@ impl Walk<'_, '_> {
     }
 
     fn saturated_carbon(&self, atom: usize) -> bool {
-        let a = &self.mol.atoms[atom];
-        a.element == 6
-            && !a.aromatic
-            && self.mol.adjacency[atom]
-                .iter()
-                .all(|&(_, b)| self.mol.bonds[b].order == Order::Single)
+        self.mol.is_saturated_carbon(atom)
     }
 }

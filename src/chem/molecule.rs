@@ -89,6 +89,16 @@ pub struct Molecule {
 }
 
 impl Molecule {
+    /// A saturated carbon: not aromatic, single bonds only (an alkyl group's atoms).
+    pub fn is_saturated_carbon(&self, atom: usize) -> bool {
+        let a = &self.atoms[atom];
+        a.element == 6
+            && !a.aromatic
+            && self.adjacency[atom]
+                .iter()
+                .all(|&(_, b)| self.bonds[b].order == Order::Single)
+    }
+
     /// Number of heavy-atom neighbours (SMARTS `D`).
     pub fn degree(&self, atom: usize) -> usize {
         self.adjacency[atom].len()
