@@ -458,3 +458,21 @@ fn a_biguanide_is_one_strong_base_in_either_tautomer() {
         assert!((s.pka - measured).abs() < 1.0, "{smiles}: {s:?}");
     }
 }
+
+#[test]
+fn isothioureas_sit_between_amidines_and_their_acyl_and_aryl_forms() {
+    // S-methylisothiourea 9.83, O-methylisourea 9.72 (Perrin 1965, from memory), in either
+    // tautomer; not an amidine at 12.
+    let hb = Handbook::builtin().unwrap();
+    for (smiles, measured) in [("CSC(=N)N", 9.83), ("CSC(N)=N", 9.83), ("COC(=N)N", 9.72)] {
+        let s = main_site(&hb, smiles, Kind::Base);
+        assert!((s.pka - measured).abs() < 0.2, "{smiles}: {}", s.source);
+    }
+    // The N-aryl and N-acyl forms follow the drops of phenylguanidine (-2.8) and
+    // acetylguanidine (-5.3) against guanidine.
+    let plain = main_site(&hb, "CSC(=N)N", Kind::Base).pka;
+    let aryl = main_site(&hb, "CSC(=N)Nc1ccccc1", Kind::Base).pka;
+    let acyl = main_site(&hb, "CSC(=N)NC(C)=O", Kind::Base).pka;
+    assert!((plain - aryl - 2.8).abs() < 0.2, "{plain} {aryl}");
+    assert!((plain - acyl - 5.3).abs() < 0.2, "{plain} {acyl}");
+}
