@@ -476,3 +476,20 @@ fn isothioureas_sit_between_amidines_and_their_acyl_and_aryl_forms() {
     assert!((plain - aryl - 2.8).abs() < 0.2, "{plain} {aryl}");
     assert!((plain - acyl - 5.3).abs() < 0.2, "{plain} {acyl}");
 }
+
+#[test]
+fn indandiones_are_stronger_acids_than_open_diketones() {
+    // Phenindione 4.09 (Clarke's Analysis of Drugs and Poisons, from memory); the plain ring
+    // lies between 1,3-cyclohexanedione 5.26 and acetylacetone 8.95 (Serjeant & Dempsey
+    // 1979, from memory).
+    let hb = Handbook::builtin().unwrap();
+    let phenindione = main_site(&hb, "O=C1C(c2ccccc2)C(=O)c2ccccc21", Kind::Acid);
+    assert!(
+        (phenindione.pka - 4.09).abs() < 0.2,
+        "{}",
+        phenindione.source
+    );
+    let plain = main_site(&hb, "O=C1CC(=O)c2ccccc21", Kind::Acid).pka;
+    let acac = main_site(&hb, "CC(=O)CC(C)=O", Kind::Acid).pka;
+    assert!(plain > 5.26 && plain < acac, "{plain} vs {acac}");
+}
