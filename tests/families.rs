@@ -493,3 +493,14 @@ fn indandiones_are_stronger_acids_than_open_diketones() {
     let acac = main_site(&hb, "CC(=O)CC(C)=O", Kind::Acid).pka;
     assert!(plain > 5.26 && plain < acac, "{plain} vs {acac}");
 }
+
+#[test]
+fn an_n_aryl_hydroxamic_acid_is_the_stronger_acid() {
+    // N-phenylbenzohydroxamic acid 8.15 (Lange's Handbook, from memory) against
+    // benzohydroxamic acid 8.8 (Serjeant & Dempsey 1979, from memory).
+    let hb = Handbook::builtin().unwrap();
+    let aryl = main_site(&hb, "O=C(c1ccccc1)N(O)c1ccccc1", Kind::Acid);
+    let plain = main_site(&hb, "O=C(NO)c1ccccc1", Kind::Acid);
+    assert!((aryl.pka - 8.15).abs() < 0.2, "{}", aryl.source);
+    assert!((plain.pka - 8.8).abs() < 0.2, "{}", plain.source);
+}
