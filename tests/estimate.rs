@@ -524,3 +524,25 @@ fn tert_butyl_groups_take_their_own_constants() {
         n_butyl.source
     );
 }
+
+#[test]
+fn para_acceptors_act_on_a_ring_n_with_sigma_m() {
+    // Isonicotinamide 3.61 and ethyl isonicotinate 3.45 (Perrin 1965, from memory): a para
+    // group that withdraws by resonance reaches the in-plane lone pair only inductively.
+    // 4-Methoxypyridine 6.62 (same source): a para donor keeps sigma_p.
+    for (smiles, measured, tolerance) in [
+        ("NC(=O)c1ccncc1", 3.61, 0.2),
+        ("CCOC(=O)c1ccncc1", 3.45, 0.5),
+        ("COc1ccncc1", 6.62, 0.3),
+    ] {
+        let s = main_site(smiles, Kind::Base);
+        assert!(
+            (s.pka - measured).abs() < tolerance && s.pka_low <= measured && measured <= s.pka_high,
+            "{smiles}: {:.2} [{:.2}, {:.2}] {}",
+            s.pka,
+            s.pka_low,
+            s.pka_high,
+            s.source
+        );
+    }
+}
