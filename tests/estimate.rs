@@ -546,3 +546,13 @@ fn para_acceptors_act_on_a_ring_n_with_sigma_m() {
         );
     }
 }
+
+#[test]
+fn a_ring_carbonyl_lowers_a_ring_n_by_its_own_constants() {
+    // 2(1H)-pyrimidinone 2.2 (N3 next to the C=O) and 4(3H)-quinazolinone 2.1 (N1 para to
+    // it) as bases (Perrin 1965, from memory): the ring oxo row's sigma_o_aza and sigma_p.
+    for (smiles, measured) in [("O=c1[nH]cccn1", 2.2), ("O=c1[nH]cnc2ccccc12", 2.1)] {
+        let s = main_site(smiles, Kind::Base);
+        assert!((s.pka - measured).abs() < 0.15, "{smiles}: {}", s.source);
+    }
+}

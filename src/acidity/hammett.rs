@@ -59,7 +59,7 @@ fn ring_terms(
             add(
                 &mut c,
                 series,
-                row.sigma_at(distance, series.para_minus, aza_site),
+                row.sigma_at(distance, series.para_minus, in_plane),
                 distance,
                 &row.name,
                 false,
@@ -83,7 +83,7 @@ fn ring_terms(
                         row,
                         distance,
                         in_plane,
-                        row.sigma_at(distance, series.para_minus, aza_site),
+                        row.sigma_at(distance, series.para_minus, in_plane),
                     ),
                     distance,
                     &row.name,

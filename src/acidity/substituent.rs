@@ -182,9 +182,10 @@ impl SeriesRow {
 
 impl Substituent {
     /// The Hammett constant for a ring distance (1 ortho, 2 meta, 3 para) and whether it is a
-    /// stand-in (sigma_p for a missing sigma_o). `aza_site`: the site is the ring N itself,
-    /// where an ortho group takes `sigma_o_aza` when it has one.
-    pub fn sigma_at(&self, distance: usize, para_minus: bool, aza_site: bool) -> (f64, bool) {
+    /// stand-in (sigma_p for a missing sigma_o). `ring_n_site`: the site is a pyridine-type
+    /// ring N itself (not a lactam N-H), where an ortho group takes `sigma_o_aza` when it has
+    /// one.
+    pub fn sigma_at(&self, distance: usize, para_minus: bool, ring_n_site: bool) -> (f64, bool) {
         let para = || {
             if para_minus {
                 self.sigma_minus.or(self.sigma_p)
@@ -194,7 +195,9 @@ impl Substituent {
             .unwrap_or(0.0)
         };
         match distance {
-            1 if aza_site && self.sigma_o_aza.is_some() => (self.sigma_o_aza.unwrap_or(0.0), false),
+            1 if ring_n_site && self.sigma_o_aza.is_some() => {
+                (self.sigma_o_aza.unwrap_or(0.0), false)
+            }
             1 => match self.sigma_o {
                 Some(s) => (s, false),
                 None => (para(), true),
