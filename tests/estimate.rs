@@ -570,3 +570,21 @@ fn aryl_hydrazines_follow_their_ring_substituents() {
         chloro.source
     );
 }
+
+#[test]
+fn dinitroalkanes_follow_the_taft_series_of_their_third_group() {
+    // Dinitromethane 3.57 and 1,1-dinitroethane 5.24 (Serjeant & Dempsey 1979, from memory);
+    // a CH2Cl group as the third group lowers the ethane by rho* 3.4 times sigma*(CH2Cl) 1.05
+    // (Taft 1956, from memory).
+    let methane = main_site("O=[N+]([O-])C[N+](=O)[O-]", Kind::Acid);
+    assert!((methane.pka - 3.57).abs() < 0.1, "{}", methane.source);
+    let ethane = main_site("CC([N+](=O)[O-])[N+](=O)[O-]", Kind::Acid);
+    assert!((ethane.pka - 5.24).abs() < 1e-6, "{}", ethane.source);
+    let chloro = main_site("ClCC([N+](=O)[O-])[N+](=O)[O-]", Kind::Acid);
+    assert!(
+        (chloro.pka - (5.24 - 3.4 * 1.05)).abs() < 0.05,
+        "{:.2}: {}",
+        chloro.pka,
+        chloro.source
+    );
+}
