@@ -588,3 +588,19 @@ fn dinitroalkanes_follow_the_taft_series_of_their_third_group() {
         chloro.source
     );
 }
+
+#[test]
+fn ring_imines_next_to_an_alkylated_ring_n_follow_their_ring_substituents() {
+    // 1-Methyl-2(1H)-pyridinimine 12.2 (Perrin 1965, from memory) is the row's parent; a
+    // chlorine para to the imine carbon lowers it by the ring_imine rho 2.89 times
+    // sigma-minus(Cl) 0.19 (Hansch, Leo & Taft 1991, from memory).
+    let parent = main_site("Cn1ccccc1=N", Kind::Base);
+    assert!((parent.pka - 12.2).abs() < 1e-6, "{}", parent.source);
+    let chloro = main_site("Cn1cc(Cl)ccc1=N", Kind::Base);
+    assert!(
+        (parent.pka - chloro.pka - 2.89 * 0.19).abs() < 0.02,
+        "{}",
+        chloro.source
+    );
+    assert!(chloro.pka_high - chloro.pka_low > parent.pka_high - parent.pka_low);
+}
