@@ -504,3 +504,14 @@ fn an_n_aryl_hydroxamic_acid_is_the_stronger_acid() {
     assert!((aryl.pka - 8.15).abs() < 0.2, "{}", aryl.source);
     assert!((plain.pka - 8.8).abs() < 0.2, "{}", plain.source);
 }
+
+#[test]
+fn hobt_is_one_acid_and_its_ring_n_atoms_are_not_sites() {
+    // 1-Hydroxybenzotriazole 4.60 (Carpino, J. Am. Chem. Soc. 1993, from memory): the N-O-H
+    // is the site; its triazole ring N atoms are not bases in water.
+    let hb = Handbook::builtin().unwrap();
+    let p = Profile::new("On1nnc2ccccc21", &hb).unwrap();
+    let kinds: Vec<Kind> = p.sites.iter().map(|s| s.kind).collect();
+    assert_eq!(kinds, vec![Kind::Acid], "{:?}", p.sites);
+    assert!((reading(&hb, "On1nnc2ccccc21", Kind::Acid) - 4.6).abs() < 0.2);
+}
