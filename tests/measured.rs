@@ -322,3 +322,27 @@ fn db_bad_input_exits_2_and_stores_nothing() {
         "a bad file imports nothing"
     );
 }
+
+#[test]
+fn lactim_spellings_key_and_read_as_their_lactams() {
+    // 2-Hydroxypyridine and 2,4-dihydroxypyrimidine are the 2-pyridone and uracil they are
+    // in water (Beak 1977, from memory): one canonical key, and uracil's built-in value 9.45
+    // (CRC Handbook, from memory) is found from the lactim spelling.
+    assert_eq!(
+        canon::key("Oc1ccccn1").unwrap(),
+        canon::key("O=c1cccc[nH]1").unwrap()
+    );
+    assert_eq!(
+        canon::key("Oc1ccnc(O)n1").unwrap(),
+        canon::key("O=c1cc[nH]c(=O)[nH]1").unwrap()
+    );
+    let hb = Handbook::builtin_measured().unwrap();
+    let p = Profile::new("Oc1ccnc(O)n1", &hb).unwrap();
+    assert_eq!(p.origin, Origin::Measured, "{:?}", p.sites);
+    assert!((scored(&p, Kind::Acid).unwrap() - 9.45).abs() < 0.01);
+    // A phenol and a 3-hydroxypyridine keep their O-H.
+    assert_ne!(
+        canon::key("Oc1cccnc1").unwrap(),
+        canon::key("O=c1ccc[nH]c1").unwrap_or_default()
+    );
+}

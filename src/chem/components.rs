@@ -163,6 +163,8 @@ pub fn split(mol: &Molecule) -> Result<Compound> {
             permanent_charge,
         });
     }
+    // Hydroxypyridine-type spellings are read as the pyridones they are in water.
+    super::tautomer::prefer_lactams(&mut neutral);
     // Strong ions, permanent charges and the written charge must balance; a written charge
     // left over means the user gave one ion of a salt, so its partner is supplied.
     let written = mol.charge();

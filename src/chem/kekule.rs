@@ -95,17 +95,24 @@ pub fn normalize(mol: &mut Molecule) {
                 .any(|&(_, b)| mol.bonds[b].aromatic && mol.bonds[b].order == Order::Double)
         })
         .collect();
+    // The current assignment proves a matching exists; if the search still gives up, the
+    // written one is kept.
+    place_double_bonds(mol, &need);
+}
+
+/// Places the double bonds of the perceived aromatic bonds anew so that exactly the atoms of
+/// `need` carry one, by the deterministic search of `normalize`. Returns false, leaving `mol`
+/// unchanged, when no such placement is found.
+pub fn place_double_bonds(mol: &mut Molecule, need: &[bool]) -> bool {
     let mut mate: Vec<Option<usize>> = vec![None; mol.atoms.len()];
     let mut search = Search {
         mol,
-        need: &need,
+        need,
         budget: SEARCH_BUDGET,
         stuck: None,
     };
-    // The current assignment proves a matching exists; if the search still gives up, the
-    // written one is kept.
     if search.extend(&mut mate) != Some(true) {
-        return;
+        return false;
     }
     for bond in mol.bonds.iter_mut() {
         if bond.aromatic && bond.order == Order::Double {
@@ -115,6 +122,7 @@ pub fn normalize(mol: &mut Molecule) {
     for m in mate.iter().flatten() {
         mol.bonds[*m].order = Order::Double;
     }
+    true
 }
 
 /// Atoms that need a double bond, grouped by connection through written-aromatic bonds.

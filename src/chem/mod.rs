@@ -1,4 +1,5 @@
-//! Molecules: reading SMILES, rings, aromaticity, elements and formulas, SMARTS matching.
+//! Molecules: reading SMILES, rings, aromaticity, elements and formulas, SMARTS matching,
+//! lactim-lactam tautomers.
 
 pub mod aromaticity;
 pub mod canon;
@@ -10,3 +11,4 @@ pub mod molecule;
 pub mod rings;
 pub mod smarts;
 pub mod smiles;
+pub mod tautomer;

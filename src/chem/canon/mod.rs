@@ -8,7 +8,8 @@
 //! Several parents (a salt of two organic ions) give their keys sorted and joined by `.`.
 //! Stereo marks are ignored by the reader, so cis/trans and enantiomers share a key. Nitro and
 //! N-oxide groups written with pentavalent N (`N(=O)=O`) are keyed as the charge-separated
-//! form (`[N+](=O)[O-]`), the usual normalization.
+//! form (`[N+](=O)[O-]`), the usual normalization. A lactim spelling (2-hydroxypyridine,
+//! 2,4-dihydroxypyrimidine) is keyed as the lactam it is in water (2-pyridone, uracil).
 //!
 //! Method: atom invariants (element, isotope, charge, H count, aromaticity, ring membership,
 //! degree) are ranked and refined from neighbour ranks and bond kinds until stable (Morgan's
@@ -23,8 +24,9 @@ use super::molecule::Molecule;
 use crate::error::Result;
 
 /// Changes whenever the key of some structure would change; part of the data version, so
-/// stored keys are recomputed after an upgrade.
-pub const KEY_VERSION: &str = "canon-2";
+/// stored keys are recomputed after an upgrade (canon-3: lactim spellings key as their
+/// lactams, `chem::tautomer`).
+pub const KEY_VERSION: &str = "canon-3";
 
 /// Tie-break leaves tried per structure before later ties take their first candidate only
 /// (symmetric atoms give the same string whichever is chosen, so the cap only matters for
