@@ -539,6 +539,13 @@ const REAGENTS: &[Case] = &[
         0.2,
         "O-methylhydroxylamine; Perrin 1965 (from memory)",
     ),
+    (
+        "NS(=O)(=O)C(F)(F)F",
+        Kind::Acid,
+        6.33,
+        0.2,
+        "trifluoromethanesulfonamide; Serjeant & Dempsey 1979 (from memory)",
+    ),
 ];
 
 #[test]
@@ -551,4 +558,13 @@ fn common_reagents_find_their_rows() {
     let p = Profile::new("N#CCC(=O)O", &hb).unwrap();
     assert_eq!(p.sites.len(), 1, "{:?}", p.sites);
     assert!((p.sites[0].pka - 2.47).abs() < 0.3, "{:?}", p.sites[0]);
+    // Squaric acid 0.54 and 3.48 (Serjeant & Dempsey 1979, from memory), either spelling:
+    // two equal O-H, the second held back by the like-charge interplay.
+    for smiles in ["O=c1c(O)c(O)c1=O", "OC1=C(O)C(=O)C1=O"] {
+        let p = Profile::new(smiles, &hb).unwrap();
+        let macro_pka = p.constants().macro_pka;
+        assert_eq!(macro_pka.len(), 2, "{smiles}: {macro_pka:?}");
+        assert!((macro_pka[0] - 0.54).abs() < 0.2, "{smiles}: {macro_pka:?}");
+        assert!((macro_pka[1] - 3.48).abs() < 0.3, "{smiles}: {macro_pka:?}");
+    }
 }
