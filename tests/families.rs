@@ -540,6 +540,13 @@ const REAGENTS: &[Case] = &[
         "O-methylhydroxylamine; Perrin 1965 (from memory)",
     ),
     (
+        "CN1C(=O)CN=C(c2ccccc2)c2cc(Cl)ccc21",
+        Kind::Base,
+        3.4,
+        1.2,
+        "diazepam, its imine N (the row's range is wide: no series); Clarke's Analysis of Drugs and Poisons (from memory)",
+    ),
+    (
         "NS(=O)(=O)C(F)(F)F",
         Kind::Acid,
         6.33,
