@@ -103,8 +103,8 @@ fn ring_terms(
 /// ring N only inductively, with sigma_m: isonicotinamide 3.61 and ethyl isonicotinate 3.45
 /// against pyridine 5.23 (rho 5.9) give 0.27 and 0.30, at or below the amide's and ester's
 /// sigma_m (0.28, 0.37) and well below their sigma_p (0.36, 0.45) (Perrin 1965, from memory;
-/// neither compound is in the calibration set). Donors keep sigma_p: their resonance reaches the ring N
-/// (4-aminopyridine, 4-methoxypyridine).
+/// neither compound is in the calibration set). Donors keep sigma_p: their resonance reaches
+/// the ring N (4-aminopyridine, 4-methoxypyridine).
 fn para_acceptor_at_ring_n(
     row: &super::substituent::Substituent,
     distance: usize,

@@ -56,17 +56,13 @@ fn lactim(mol: &Molecule, x: usize) -> Option<(usize, usize)> {
     let mut para = None;
     for ring in rings {
         let i = ring.iter().position(|&a| a == c)?;
-        for (step, slot) in [(1, None), (5, None), (3, Some(()))] {
-            let a = ring[(i + step) % 6];
-            if !pyridine_n(a) {
-                continue;
-            }
-            match slot {
-                None => return Some((c, a)),
-                Some(()) => {
-                    para.get_or_insert((c, a));
-                }
-            }
+        // The two ortho neighbours in the ring, then the para atom.
+        let [ortho_a, ortho_b, across] = [1, 5, 3].map(|step| ring[(i + step) % 6]);
+        if let Some(n) = [ortho_a, ortho_b].into_iter().find(|&a| pyridine_n(a)) {
+            return Some((c, n));
+        }
+        if pyridine_n(across) {
+            para.get_or_insert((c, across));
         }
     }
     para
