@@ -615,3 +615,21 @@ fn ring_imines_next_to_an_alkylated_ring_n_follow_their_ring_substituents() {
     let chloro = main_site("Cn1cc(Cl)ccc1=N", Kind::Base);
     assert!(chloro.pka_high - chloro.pka_low > parent.pka_high - parent.pka_low);
 }
+
+#[test]
+fn a_further_fused_ring_widens_the_range() {
+    // Benzo[h]quinoline: the third ring sits on quinoline's benzo ring, with no constant;
+    // its estimate keeps quinoline's value but the range grows and the source says why.
+    let quinoline = main_site("c1ccc2ncccc2c1", Kind::Base);
+    let benzo = main_site("c1ccc2c(c1)ccc1cccnc12", Kind::Base);
+    assert!(
+        benzo.pka_high - benzo.pka_low > quinoline.pka_high - quinoline.pka_low + 0.5,
+        "{}",
+        benzo.source
+    );
+    assert!(
+        benzo.source.contains("without constants"),
+        "{}",
+        benzo.source
+    );
+}

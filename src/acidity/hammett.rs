@@ -131,7 +131,8 @@ const CROSS_RING: f64 = 0.48;
 /// 2,6-naphthyridine 3.9 and 2,7-naphthyridine 3.4 against isoquinoline 5.40 (rho 5.9) give
 /// 0.39 and 0.52 of the aza sigma_m 0.65, the share `CROSS_RING` describes (Albert 1960,
 /// from memory). Quinazolines and pteridines that hydrate covalently have their own group
-/// rows, whose parents carry these terms too, so they cancel there.
+/// rows, whose parents carry these terms too, so they cancel there. A further ring fused onto
+/// the fused ring has no constant: it widens the range as an unknown group.
 fn cross_ring(
     mol: &Molecule,
     ring: &[usize],
@@ -142,6 +143,7 @@ fn cross_ring(
     far_aza: bool,
 ) {
     let six = |r: &&Vec<usize>| r.len() == 6 && r.iter().all(|&a| mol.atoms[a].aromatic);
+    let mut further_rings: Vec<usize> = Vec::new();
     for fused in mol.rings.rings.iter().filter(six) {
         let shared: Vec<usize> = fused.iter().copied().filter(|a| ring.contains(a)).collect();
         if shared.len() != 2 || shared.contains(&ipso) {
@@ -167,13 +169,22 @@ fn cross_ring(
                 push(row);
             }
             for &(y, _) in &mol.adjacency[f] {
-                // Atoms of further rings on this one (acridine-type) are not substituents.
-                let in_ring_with_f = mol
+                // Atoms of further rings on this one (benzo[h]quinoline-type) are not
+                // substituents; such a ring is counted once as a group without constants.
+                let further = mol
                     .rings
                     .rings
                     .iter()
-                    .any(|r| r.contains(&y) && r.contains(&f));
-                if fused.contains(&y) || ring.contains(&y) || in_ring_with_f {
+                    .position(|r| r.contains(&y) && r.contains(&f));
+                if let Some(r) = further
+                    && !fused.contains(&y)
+                    && !ring.contains(&y)
+                    && !further_rings.contains(&r)
+                {
+                    further_rings.push(r);
+                    c.unknown += 1;
+                }
+                if fused.contains(&y) || ring.contains(&y) || further.is_some() {
                     continue;
                 }
                 if let Some(row) = look.at(y, Some(f), Position::Attached) {
