@@ -10,7 +10,7 @@ use std::collections::HashMap;
 
 use super::group::Group;
 use super::lookup::Lookup;
-use super::sites::{Site, find_sites_in};
+use super::sites::{RingSite, Site, find_sites_in};
 use super::substituent::{Constant, Series, SeriesRow, Substituent, SubstituentRow};
 use super::{hammett, taft};
 use crate::chem::molecule::Molecule;
@@ -196,6 +196,13 @@ impl Estimator {
         site.pka_low = pka - spread_low;
         site.pka_high = pka + spread_high;
         site.ring_corrected = series.constant != Constant::Taft;
+        if series.constant == Constant::Hammett {
+            site.ring = hammett::ipso(mol, site.atom).map(|ipso| RingSite {
+                rho: series.rho,
+                ipso,
+                para_minus: series.para_minus,
+            });
+        }
         site.source = describe(group, series, &c, link.parent.as_ref());
     }
 }

@@ -20,6 +20,12 @@ pub fn correct(mol: &Molecule, site: usize, series: &Series, look: &Lookup) -> O
     ring_terms(mol, ipso, came_from, site, series, look)
 }
 
+/// The six-membered aromatic ring atom nearest `site` (the one its Hammett terms are counted
+/// from), if one lies within reach.
+pub fn ipso(mol: &Molecule, site: usize) -> Option<usize> {
+    nearest_ring_atom(mol, site).map(|(ipso, _)| ipso)
+}
+
 /// The Hammett terms of the substituents on the six-membered aromatic ring at `ipso`, seen
 /// from `came_from` (an aryl group in a Taft chain: its ring substituents, sigma by position
 /// from the atom that bears the chain). `None` when `ipso` is not in such a ring.

@@ -4,6 +4,11 @@
 //! microscopic pKa (all other sites neutral) and the pH at which it is half ionized in the
 //! molecule.
 //!
+//! Two sites meta or para to each other on one six-membered aromatic ring interact through the
+//! ring instead: one site's series rho times the change of the other's Hammett sigma when it
+//! ionizes (`data/ionized_sigma.csv`; NH2 to NH3+, COOH to COO-, OH to O-, ring N to ring NH+),
+//! averaged over both directions where both are known.
+//!
 //! A site's estimate is taken as its microscopic constant with every other site neutral, so
 //! the pKa estimate must not itself count the charge of a neighbouring site; this module adds
 //! that charge through the microstates (`equilibrium::microstates`).
@@ -23,6 +28,82 @@ use crate::error::{Error, Result};
 
 /// The embedded table of interaction shifts.
 pub const SITE_INTERACTIONS_CSV: &str = include_str!("../../data/site_interactions.csv");
+
+/// The embedded table of sigma changes on ionization (`data/ionized_sigma.csv`).
+pub const IONIZED_SIGMA_CSV: &str = include_str!("../../data/ionized_sigma.csv");
+
+#[derive(Debug, Deserialize)]
+struct IonizedRow {
+    group: String,
+    delta_sigma_m: f64,
+    delta_sigma_p: f64,
+    delta_sigma_minus: f64,
+    #[allow(dead_code)]
+    source: String,
+}
+
+/// One row of `data/ionized_sigma.csv`: group, and the sigma changes meta, para, para
+/// (sigma-minus).
+type Ionized = (String, f64, f64, f64);
+
+/// Per group name: the change of its Hammett sigma when the site ionizes.
+fn ionized_sigma() -> Result<&'static [Ionized]> {
+    static TABLE: OnceLock<std::result::Result<Vec<Ionized>, String>> = OnceLock::new();
+    TABLE
+        .get_or_init(|| {
+            csv::ReaderBuilder::new()
+                .comment(Some(b'#'))
+                .from_reader(IONIZED_SIGMA_CSV.as_bytes())
+                .deserialize::<IonizedRow>()
+                .map(|r| {
+                    let r = r.map_err(|e| e.to_string())?;
+                    let all = [r.delta_sigma_m, r.delta_sigma_p, r.delta_sigma_minus];
+                    if !all.iter().all(|d| d.is_finite()) {
+                        return Err(format!("{}: changes must be finite", r.group));
+                    }
+                    Ok((
+                        r.group,
+                        r.delta_sigma_m,
+                        r.delta_sigma_p,
+                        r.delta_sigma_minus,
+                    ))
+                })
+                .collect()
+        })
+        .as_ref()
+        .map(Vec::as_slice)
+        .map_err(|e| Error::Internal(format!("data/ionized_sigma.csv: {e}")))
+}
+
+/// The interaction of two sites on one six-membered aromatic ring, meta or para to each other,
+/// from Hammett constants: site `i`'s rho times the change of `j`'s sigma on ionizing, taken
+/// both ways where both are known and averaged. `None` when neither way applies.
+fn ring_interaction(mol: &Molecule, i: &GroupSite, j: &GroupSite) -> Option<f64> {
+    let table = ionized_sigma().ok()?;
+    let one_way = |from: &GroupSite, to: &GroupSite| -> Option<f64> {
+        let ring = from.ring?;
+        let &(_, m, p, minus) = table.iter().find(|(g, _, _, _)| *g == to.group)?;
+        let p = if ring.para_minus { minus } else { p };
+        let other = crate::acidity::hammett::ipso(mol, to.atom)?;
+        let shared = mol.rings.rings.iter().find(|r| {
+            r.len() == 6
+                && r.contains(&ring.ipso)
+                && r.contains(&other)
+                && r.iter().all(|&a| mol.atoms[a].aromatic)
+        })?;
+        let at = |a: usize| shared.iter().position(|&x| x == a);
+        let d = at(ring.ipso)?.abs_diff(at(other)?);
+        match d.min(6 - d) {
+            2 => Some((ring.rho * m).abs()),
+            3 => Some((ring.rho * p).abs()),
+            _ => None,
+        }
+    };
+    match (one_way(i, j), one_way(j, i)) {
+        (Some(a), Some(b)) => Some((a + b) / 2.0),
+        (a, b) => a.or(b),
+    }
+}
 
 #[derive(Debug, Deserialize)]
 struct Row {
@@ -223,12 +304,17 @@ impl Profile {
         let always_ionized =
             |s: &GroupSite| s.kind == Kind::Acid && s.pka < super::reading::MEASURABLE.0;
         let counted = |a: &GroupSite, b: &GroupSite| always_ionized(a) && b.ring_corrected;
-        couplings(&self.compound.neutral, &atoms)
+        let mol = &self.compound.neutral;
+        couplings(mol, &atoms)
             .unwrap_or_default()
             .into_iter()
             .filter(|c| {
                 let (a, b) = (sites[c.a], sites[c.b]);
                 !(counted(a, b) || counted(b, a))
+            })
+            .map(|c| match ring_interaction(mol, sites[c.a], sites[c.b]) {
+                Some(shift) => Coupling { shift, ..c },
+                None => c,
             })
             .collect()
     }
@@ -312,6 +398,19 @@ mod tests {
         let (d, s) = *t.like.last().unwrap();
         assert!((t.shift(true, 2 * d, 1) - s / 2.0).abs() < 1e-12);
         assert!(t.shift(true, 3, 2) > t.shift(true, 3, 1));
+    }
+
+    #[test]
+    fn ionized_sigma_rows_name_groups_of_the_group_table() {
+        let rows = ionized_sigma().unwrap();
+        assert!(!rows.is_empty());
+        let groups = crate::store::builtin::GROUPS_CSV;
+        for (name, ..) in rows {
+            let listed = groups.lines().any(|l| {
+                l.starts_with(&format!("{name},")) || l.starts_with(&format!("\"{name}\","))
+            });
+            assert!(listed, "{name} is not a row of data/groups.csv");
+        }
     }
 
     #[test]

@@ -336,6 +336,7 @@ mod tests {
             source: "estimate".into(),
             beyond_water: false,
             ring_corrected: false,
+            ring: None,
         }
     }
 

@@ -31,6 +31,20 @@ pub struct Site {
     /// which is the anion's, so the site interplay must not count its charge again.
     #[serde(skip)]
     pub ring_corrected: bool,
+    /// For a site on or next to a six-membered aromatic ring corrected by a Hammett series:
+    /// that series' rho and the ring atom nearest the site (set by `estimate`), so that the
+    /// interplay can weigh another site's ionization on that ring by its change of sigma.
+    #[serde(skip)]
+    pub ring: Option<RingSite>,
+}
+
+/// A Hammett-corrected site's series slope and ring atom (see `Site::ring`).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct RingSite {
+    pub rho: f64,
+    pub ipso: usize,
+    /// The series takes sigma-minus for para groups.
+    pub para_minus: bool,
 }
 
 /// The sites of `mol` under `groups` (table order is priority), sorted by atom index.
@@ -90,6 +104,7 @@ pub fn find_sites_in(target: &Target, groups: &[Group]) -> Vec<Site> {
                 source: group.source.clone(),
                 beyond_water: group.kind.is_none(),
                 ring_corrected: false,
+                ring: None,
             })
         })
         .collect()
