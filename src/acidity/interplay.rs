@@ -6,8 +6,9 @@
 //!
 //! Two sites meta or para to each other on one six-membered aromatic ring interact through the
 //! ring instead: one site's series rho times the change of the other's Hammett sigma when it
-//! ionizes (`data/ionized_sigma.csv`; NH2 to NH3+, COOH to COO-, OH to O-, ring N to ring NH+),
-//! averaged over both directions where both are known.
+//! ionizes (`data/ionized_sigma.csv`; NH2 to NH3+, COOH to COO-, OH to O-, ring N to ring NH+,
+//! an amine on a carbon next to the ring to its ammonium ion), averaged over both directions
+//! where both are known.
 //!
 //! A site's estimate is taken as its microscopic constant with every other site neutral, so
 //! the pKa estimate must not itself count the charge of a neighbouring site; this module adds
@@ -35,6 +36,7 @@ pub const IONIZED_SIGMA_CSV: &str = include_str!("../../data/ionized_sigma.csv")
 #[derive(Debug, Deserialize)]
 struct IonizedRow {
     group: String,
+    reach: usize,
     delta_sigma_m: f64,
     delta_sigma_p: f64,
     delta_sigma_minus: f64,
@@ -42,9 +44,9 @@ struct IonizedRow {
     source: String,
 }
 
-/// One row of `data/ionized_sigma.csv`: group, and the sigma changes meta, para, para
-/// (sigma-minus).
-type Ionized = (String, f64, f64, f64);
+/// One row of `data/ionized_sigma.csv`: group, bonds from the site to its ring atom, and the
+/// sigma changes meta, para, para (sigma-minus).
+type Ionized = (String, usize, f64, f64, f64);
 
 /// Per group name: the change of its Hammett sigma when the site ionizes.
 fn ionized_sigma() -> Result<&'static [Ionized]> {
@@ -63,6 +65,7 @@ fn ionized_sigma() -> Result<&'static [Ionized]> {
                     }
                     Ok((
                         r.group,
+                        r.reach,
                         r.delta_sigma_m,
                         r.delta_sigma_p,
                         r.delta_sigma_minus,
@@ -82,9 +85,13 @@ fn ring_interaction(mol: &Molecule, i: &GroupSite, j: &GroupSite) -> Option<f64>
     let table = ionized_sigma().ok()?;
     let one_way = |from: &GroupSite, to: &GroupSite| -> Option<f64> {
         let ring = from.ring?;
-        let &(_, m, p, minus) = table.iter().find(|(g, _, _, _)| *g == to.group)?;
+        let &(_, reach, m, p, minus) = table.iter().find(|row| row.0 == to.group)?;
         let p = if ring.para_minus { minus } else { p };
         let other = crate::acidity::hammett::ipso(mol, to.atom)?;
+        // The table's change belongs to the group at its own distance from the ring.
+        if paths_from(mol, to.atom, false)[other].map(|(d, _)| d) != Some(reach) {
+            return None;
+        }
         let shared = mol.rings.rings.iter().find(|r| {
             r.len() == 6
                 && r.contains(&ring.ipso)
@@ -405,7 +412,8 @@ mod tests {
         let rows = ionized_sigma().unwrap();
         assert!(!rows.is_empty());
         let groups = crate::store::builtin::GROUPS_CSV;
-        for (name, ..) in rows {
+        for (name, reach, ..) in rows {
+            assert!(*reach <= 2, "{name}");
             let listed = groups.lines().any(|l| {
                 l.starts_with(&format!("{name},")) || l.starts_with(&format!("\"{name}\","))
             });
