@@ -44,6 +44,13 @@ struct IonizedRow {
     source: String,
 }
 
+/// A reader for an embedded table: header on the first line, `#` lines are comments.
+fn table_reader(text: &str) -> csv::Reader<&[u8]> {
+    csv::ReaderBuilder::new()
+        .comment(Some(b'#'))
+        .from_reader(text.as_bytes())
+}
+
 /// One row of `data/ionized_sigma.csv`: group, bonds from the site to its ring atom, and the
 /// sigma changes meta, para, para (sigma-minus).
 type Ionized = (String, usize, f64, f64, f64);
@@ -53,9 +60,7 @@ fn ionized_sigma() -> Result<&'static [Ionized]> {
     static TABLE: OnceLock<std::result::Result<Vec<Ionized>, String>> = OnceLock::new();
     TABLE
         .get_or_init(|| {
-            csv::ReaderBuilder::new()
-                .comment(Some(b'#'))
-                .from_reader(IONIZED_SIGMA_CSV.as_bytes())
+            table_reader(IONIZED_SIGMA_CSV)
                 .deserialize::<IonizedRow>()
                 .map(|r| {
                     let r = r.map_err(|e| e.to_string())?;
@@ -141,9 +146,7 @@ impl Interactions {
     }
 
     fn parse(text: &str) -> std::result::Result<Interactions, String> {
-        let rows: Vec<Row> = csv::ReaderBuilder::new()
-            .comment(Some(b'#'))
-            .from_reader(text.as_bytes())
+        let rows: Vec<Row> = table_reader(text)
             .deserialize()
             .collect::<std::result::Result<_, _>>()
             .map_err(|e| e.to_string())?;
