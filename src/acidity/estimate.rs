@@ -60,6 +60,8 @@ pub struct Correction {
     pub terms: Vec<Term>,
     /// Substituents with no tabulated constant.
     pub unknown: usize,
+    /// For a six-membered-ring Hammett correction: the ring atom the terms are counted from.
+    pub ipso: Option<usize>,
 }
 
 impl Correction {
@@ -85,6 +87,8 @@ pub struct Estimator {
     pub series: Vec<Series>,
     /// Per group (same order as the handbook's groups).
     links: Vec<Option<GroupSeries>>,
+    /// Index of the `ARYL_SIGMA_STAR` series, if the table has it.
+    aryl: Option<usize>,
 }
 
 impl Estimator {
@@ -105,6 +109,7 @@ impl Estimator {
                 .map(SeriesRow::compile)
                 .collect::<Result<_>>()?,
             links: Vec::new(),
+            aryl: None,
         };
         let by_name: HashMap<&str, usize> = e
             .series
@@ -128,6 +133,7 @@ impl Estimator {
             links.push(Some(GroupSeries { series, parent }));
         }
         e.links = links;
+        e.aryl = by_name.get(ARYL_SIGMA_STAR).copied();
         Ok(e)
     }
 
@@ -147,7 +153,7 @@ impl Estimator {
 
     /// The series that carries aryl ring substituents into sigma* (`ARYL_SIGMA_STAR`).
     fn aryl(&self) -> Option<&Series> {
-        self.series.iter().find(|s| s.name == ARYL_SIGMA_STAR)
+        self.aryl.map(|i| &self.series[i])
     }
 
     fn correction(
@@ -197,7 +203,7 @@ impl Estimator {
         site.pka_high = pka + spread_high;
         site.ring_corrected = series.constant != Constant::Taft;
         if series.constant == Constant::Hammett {
-            site.ring = hammett::ipso(mol, site.atom).map(|ipso| RingSite {
+            site.ring = c.ipso.map(|ipso| RingSite {
                 rho: series.rho,
                 ipso,
                 para_minus: series.para_minus,

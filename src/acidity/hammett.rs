@@ -16,14 +16,14 @@ const MAX_REACH: usize = 3;
 /// The Hammett terms of the site at `site`, or `None` when no six-membered aromatic ring lies
 /// within reach.
 pub fn correct(mol: &Molecule, site: usize, series: &Series, look: &Lookup) -> Option<Correction> {
-    let (ipso, came_from) = nearest_ring_atom(mol, site)?;
+    let (ipso, came_from, _) = nearest_ring_atom(mol, site)?;
     ring_terms(mol, ipso, came_from, site, series, look)
 }
 
 /// The six-membered aromatic ring atom nearest `site` (the one its Hammett terms are counted
-/// from), if one lies within reach.
-pub fn ipso(mol: &Molecule, site: usize) -> Option<usize> {
-    nearest_ring_atom(mol, site).map(|(ipso, _)| ipso)
+/// from) and the bonds between them, if such an atom lies within reach.
+pub fn ipso(mol: &Molecule, site: usize) -> Option<(usize, usize)> {
+    nearest_ring_atom(mol, site).map(|(ipso, _, bonds)| (ipso, bonds))
 }
 
 /// The Hammett terms of the substituents on the six-membered aromatic ring at `ipso`, seen
@@ -56,7 +56,10 @@ fn ring_terms(
     // A pyridine-type ring N site (two ring neighbours, no H): its lone pair lies in the ring
     // plane, out of reach of a para group's pi resonance.
     let in_plane = aza_site && mol.atoms[site].hydrogens() == 0 && mol.degree(site) == 2;
-    let mut c = Correction::default();
+    let mut c = Correction {
+        ipso: Some(ipso),
+        ..Correction::default()
+    };
     for &r in ring {
         let distance = ring_distance(ring, ipso, r);
         if r != ipso
@@ -305,8 +308,8 @@ fn add(
 }
 
 /// Breadth-first from the site to the first aromatic atom of a six-membered ring; also the
-/// atom the path arrived from (not a substituent of the ring).
-fn nearest_ring_atom(mol: &Molecule, site: usize) -> Option<(usize, Option<usize>)> {
+/// atom the path arrived from (not a substituent of the ring) and the bonds walked.
+fn nearest_ring_atom(mol: &Molecule, site: usize) -> Option<(usize, Option<usize>, usize)> {
     let in_six_ring = |a: usize| {
         mol.atoms[a].aromatic
             && mol
@@ -321,7 +324,7 @@ fn nearest_ring_atom(mol: &Molecule, site: usize) -> Option<(usize, Option<usize
     depth[site] = 0;
     while let Some(a) = queue.pop_front() {
         if in_six_ring(a) {
-            return Some((a, prev[a]));
+            return Some((a, prev[a], depth[a]));
         }
         if depth[a] == MAX_REACH {
             continue;

@@ -92,9 +92,9 @@ fn ring_interaction(mol: &Molecule, i: &GroupSite, j: &GroupSite) -> Option<f64>
         let ring = from.ring?;
         let &(_, reach, m, p, minus) = table.iter().find(|row| row.0 == to.group)?;
         let p = if ring.para_minus { minus } else { p };
-        let other = crate::acidity::hammett::ipso(mol, to.atom)?;
+        let (other, bonds) = crate::acidity::hammett::ipso(mol, to.atom)?;
         // The table's change belongs to the group at its own distance from the ring.
-        if paths_from(mol, to.atom, false)[other].map(|(d, _)| d) != Some(reach) {
+        if bonds != reach {
             return None;
         }
         let shared = mol.rings.rings.iter().find(|r| {
