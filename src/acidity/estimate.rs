@@ -174,7 +174,7 @@ impl Estimator {
     fn apply(&self, mol: &Molecule, site: &mut Site, group: &Group, g: usize, look: &Lookup) {
         let Some(Some(link)) = self.links.get(g) else {
             site.source = format!("estimate: {}; {}", group.name, group.source);
-            let n = uncorrected_substituents(mol, group, site.atom, look);
+            let n = uncorrected_substituents(mol, &site.matched);
             if n > 0 {
                 let widen = n as f64 * WIDEN_UNKNOWN;
                 site.pka_low -= widen;
@@ -217,16 +217,7 @@ impl Estimator {
 /// them: atoms bonded to the group's matched atoms that are neither part of the match nor a
 /// plain alkyl carbon (saturated, bonded to no heteroatom or unsaturated atom besides the
 /// group). Each widens the range as a substituent without constants does in a series.
-fn uncorrected_substituents(mol: &Molecule, group: &Group, site: usize, look: &Lookup) -> usize {
-    let mut found: Option<Vec<usize>> = None;
-    group.pattern.for_each_match(look.target(), |m| {
-        if found.is_none() && m[group.site] == site {
-            found = Some(m.to_vec());
-        }
-    });
-    let Some(matched) = found else {
-        return 0;
-    };
+fn uncorrected_substituents(mol: &Molecule, matched: &[usize]) -> usize {
     let plain_alkyl = |x: usize| {
         mol.is_saturated_carbon(x)
             && mol.adjacency[x]
@@ -234,7 +225,7 @@ fn uncorrected_substituents(mol: &Molecule, group: &Group, site: usize, look: &L
                 .all(|&(y, _)| matched.contains(&y) || mol.is_saturated_carbon(y))
     };
     let mut seen: Vec<usize> = Vec::new();
-    for &a in &matched {
+    for &a in matched {
         for &(x, _) in &mol.adjacency[a] {
             if !matched.contains(&x) && !seen.contains(&x) && !plain_alkyl(x) {
                 seen.push(x);

@@ -34,11 +34,6 @@ impl<'a, 'm> Lookup<'a, 'm> {
         }
     }
 
-    /// The prepared molecule.
-    pub fn target(&self) -> &Target<'m> {
-        &self.target
-    }
-
     /// The first row of `position` anchored on `atom` whose embedding avoids `from`.
     pub fn at(
         &self,

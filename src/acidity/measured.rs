@@ -337,6 +337,7 @@ mod tests {
             beyond_water: false,
             ring_corrected: false,
             ring: None,
+            matched: Vec::new(),
         }
     }
 

@@ -36,6 +36,10 @@ pub struct Site {
     /// interplay can weigh another site's ionization on that ring by its change of sigma.
     #[serde(skip)]
     pub ring: Option<RingSite>,
+    /// The atoms of the match that claimed the site, kept for a group with no series (whose
+    /// estimate cannot correct for what hangs on them); empty otherwise.
+    #[serde(skip)]
+    pub matched: Vec<usize>,
 }
 
 /// A Hammett-corrected site's series slope and ring atom (see `Site::ring`).
@@ -57,6 +61,7 @@ pub fn find_sites(mol: &Molecule, groups: &[Group]) -> Vec<Site> {
 pub fn find_sites_in(target: &Target, groups: &[Group]) -> Vec<Site> {
     let mol = target.molecule();
     let mut claimed: Vec<Option<usize>> = vec![None; mol.atoms.len()];
+    let mut matched: Vec<Vec<usize>> = vec![Vec::new(); mol.atoms.len()];
     // The screening facts of the atoms not claimed yet, each kind once (a molecule has a few
     // kinds of atom, many times over), redone after each claim.
     let free_kinds = |claimed: &[Option<usize>]| {
@@ -82,6 +87,9 @@ pub fn find_sites_in(target: &Target, groups: &[Group]) -> Vec<Site> {
             let atom = m[group.site];
             if claimed[atom].is_none() {
                 claimed[atom] = Some(g);
+                if group.series.is_none() {
+                    matched[atom] = m.to_vec();
+                }
                 claims = true;
             }
         });
@@ -91,8 +99,9 @@ pub fn find_sites_in(target: &Target, groups: &[Group]) -> Vec<Site> {
     }
     claimed
         .iter()
+        .zip(matched)
         .enumerate()
-        .filter_map(|(atom, g)| {
+        .filter_map(|(atom, (g, matched))| {
             let group = &groups[(*g)?];
             Some(Site {
                 atom,
@@ -105,6 +114,7 @@ pub fn find_sites_in(target: &Target, groups: &[Group]) -> Vec<Site> {
                 beyond_water: group.kind.is_none(),
                 ring_corrected: false,
                 ring: None,
+                matched,
             })
         })
         .collect()
