@@ -633,3 +633,35 @@ fn a_further_fused_ring_widens_the_range() {
         benzo.source
     );
 }
+
+#[test]
+fn donors_on_a_fused_ring_conjugated_with_a_ring_n_raise_it_more() {
+    // Albert, Goldacre & Phillips, J. Chem. Soc. 1948, 2240 (from memory): 7-aminoquinoline
+    // 6.65 and 6-aminoisoquinoline 7.17 (amino conjugated with the ring N across the fusion)
+    // against 6-aminoquinoline 5.63 and 7-aminoisoquinoline 6.20 (not conjugated).
+    for (smiles, measured) in [
+        ("Nc1ccc2cccnc2c1", 6.65),
+        ("Nc1ccc2cnccc2c1", 7.17),
+        ("Nc1ccc2ncccc2c1", 5.63),
+        ("Nc1ccc2ccncc2c1", 6.20),
+    ] {
+        let s = main_site(smiles, Kind::Base);
+        assert!(
+            (s.pka - measured).abs() < 0.4 && s.pka_low <= measured && measured <= s.pka_high,
+            "{smiles}: {} {}",
+            s.pka,
+            s.source
+        );
+    }
+    // Not used for the constant: proflavine (3,6-diaminoacridine) 9.65 (Albert, The Acridines,
+    // 1966, from memory), two conjugated amino groups on the outer rings of acridine 5.58.
+    let proflavine = main_site("Nc1ccc2cc3ccc(N)cc3nc2c1", Kind::Base);
+    assert!(
+        proflavine.pka_low <= 9.65 && 9.65 <= proflavine.pka_high,
+        "{} [{}, {}] {}",
+        proflavine.pka,
+        proflavine.pka_low,
+        proflavine.pka_high,
+        proflavine.source
+    );
+}

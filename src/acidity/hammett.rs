@@ -129,9 +129,20 @@ fn para_acceptor_at_ring_n(
 /// Share of a substituent's sigma_m that crosses into the ring that holds the site from a
 /// fused benzene-type ring: 5-nitroquinoline 2.72 and 5-nitroisoquinoline 3.55 against
 /// quinoline 4.90 and isoquinoline 5.40 (rho 5.9) give 0.52 and 0.44 (Perrin 1965, from
-/// memory); their mean. Donors cross as weakly (5-aminoisoquinoline 5.59, 6-aminoquinoline
-/// 5.63), so no para resonance constant is used across the fusion.
+/// memory); their mean. Donors at positions not conjugated with the site cross as weakly
+/// (5-aminoisoquinoline 5.59, 6-aminoquinoline 5.63); see `CROSS_RING_CONJUGATED`.
 const CROSS_RING: f64 = 0.48;
+
+/// Share of a net donor's sigma_p (below zero and below its sigma_m: amino, alkoxy, alkyl)
+/// that reaches the site from a fused ring position
+/// conjugated with it (an odd number of bonds from the ring atom nearest the site, as
+/// ortho and para are in one ring) and not next to the fusion: 7-aminoquinoline 6.65 against
+/// quinoline 4.94 and 6-aminoisoquinoline 7.17 against isoquinoline 5.40 (rho 5.9, sigma_p
+/// of amino -0.66) give 0.44 and 0.45 (Albert, Goldacre & Phillips, J. Chem. Soc. 1948, 2240,
+/// from memory; neither compound is in the calibration set). Positions next to the fusion
+/// (5-aminoquinoline 5.46, 8-aminoisoquinoline 6.06) and the unconjugated ones
+/// (6-aminoquinoline 5.63, 7-aminoisoquinoline 6.20) stay with `CROSS_RING` of sigma_m.
+const CROSS_RING_CONJUGATED: f64 = 0.45;
 
 /// Substituents on a fused six-membered aromatic ring (its own atoms next to the fusion count
 /// already as attached groups). Each counts with its sigma_m times `CROSS_RING`. With
@@ -159,8 +170,20 @@ fn cross_ring(
             continue;
         }
         for &f in fused.iter().filter(|a| !ring.contains(a)) {
+            let next_to_fusion = mol.adjacency[f].iter().any(|&(y, _)| ring.contains(&y));
+            // Conjugated with the site: an odd number of bonds from the ipso atom (both
+            // rings have six members, so every path has the same parity).
+            let bonds = shared
+                .iter()
+                .map(|&s| ring_distance(fused, f, s) + ring_distance(ring, s, ipso))
+                .min()
+                .unwrap_or(0);
+            let conjugated = ring.len() == 6 && !next_to_fusion && bonds % 2 == 1;
             let mut push = |row: &super::substituent::Substituent| {
-                let sigma = CROSS_RING * row.sigma_m.unwrap_or(0.0);
+                let sigma = match (row.sigma_m, row.sigma_p) {
+                    (Some(m), Some(p)) if conjugated && p < m.min(0.0) => CROSS_RING_CONJUGATED * p,
+                    (m, _) => CROSS_RING * m.unwrap_or(0.0),
+                };
                 c.terms.push(Term {
                     label: format!("fused-{}", row.name),
                     sigma,
@@ -170,7 +193,6 @@ fn cross_ring(
                     inductive: None,
                 });
             };
-            let next_to_fusion = mol.adjacency[f].iter().any(|&(y, _)| ring.contains(&y));
             if far_aza
                 && !next_to_fusion
                 && let Some(row) = look.at(f, None, Position::Ring)
