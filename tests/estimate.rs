@@ -665,3 +665,32 @@ fn donors_on_a_fused_ring_conjugated_with_a_ring_n_raise_it_more() {
         proflavine.source
     );
 }
+
+#[test]
+fn n_substituents_of_anilines_take_the_side_series() {
+    // The groups on an N-alkylaniline's N besides the ring count by Taft's sigma* with the
+    // side series' rho* 3.23 (secondary ammonium ions, by analogy; Perrin, Dempsey & Serjeant
+    // 1981, from memory), against the row's parent N-methylaniline 4.85 (Perrin 1965):
+    // N-benzyl with sigma*(CH2Ph) 0.215 (Taft 1956, from memory).
+    check_parent_and_drop(
+        Kind::Base,
+        ("CNc1ccccc1", 4.85),
+        "c1ccc(CNc2ccccc2)cc1",
+        3.23 * 0.215,
+    );
+    // The ring keeps its own series beside them: 4-chloro adds rho 2.89 times sigma-minus
+    // 0.19 (Hansch, Leo & Taft 1991), and the range grows with the side series' sd.
+    let benzyl = main_site("c1ccc(CNc2ccccc2)cc1", Kind::Base);
+    let both = main_site("Clc1ccc(NCc2ccccc2)cc1", Kind::Base);
+    assert!(
+        (benzyl.pka - both.pka - 2.89 * 0.19).abs() < 0.02,
+        "{}",
+        both.source
+    );
+    let methyl = main_site("CNc1ccccc1", Kind::Base);
+    assert!(benzyl.pka_high - benzyl.pka_low > methyl.pka_high - methyl.pka_low + 0.5);
+    // A chain that closes back onto the ring (1,2,3,4-tetrahydroquinoline) is not walked
+    // round the ring: its estimate stays within its group's range of N-ethylaniline 5.12.
+    let thq = main_site("c1ccc2c(c1)CCCN2", Kind::Base);
+    assert!((thq.pka - 5.12).abs() < 0.4, "{}", thq.source);
+}

@@ -62,6 +62,10 @@ pub struct Correction {
     pub unknown: usize,
     /// For a six-membered-ring Hammett correction: the ring atom the terms are counted from.
     pub ipso: Option<usize>,
+    /// The sd of a side series whose terms are among `terms` (0 without one) and the pKa
+    /// change those terms make.
+    pub side_sd: f64,
+    pub side_shift: f64,
 }
 
 impl Correction {
@@ -89,6 +93,8 @@ pub struct Estimator {
     links: Vec<Option<GroupSeries>>,
     /// Index of the `ARYL_SIGMA_STAR` series, if the table has it.
     aryl: Option<usize>,
+    /// Per series (same order): the index of its side series, if it names one.
+    sides: Vec<Option<usize>>,
 }
 
 impl Estimator {
@@ -110,6 +116,7 @@ impl Estimator {
                 .collect::<Result<_>>()?,
             links: Vec::new(),
             aryl: None,
+            sides: Vec::new(),
         };
         let by_name: HashMap<&str, usize> = e
             .series
@@ -117,6 +124,22 @@ impl Estimator {
             .enumerate()
             .map(|(i, s)| (s.name.as_str(), i))
             .collect();
+        e.sides = e
+            .series
+            .iter()
+            .map(|s| {
+                let Some(name) = &s.side else {
+                    return Ok(None);
+                };
+                match by_name.get(name.as_str()) {
+                    Some(&i) if e.series[i].constant == Constant::Taft => Ok(Some(i)),
+                    _ => Err(Error::Internal(format!(
+                        "series '{}' names side series '{name}', which is not a taft series",
+                        s.name
+                    ))),
+                }
+            })
+            .collect::<Result<_>>()?;
         let mut links = Vec::with_capacity(groups.len());
         for g in groups {
             let Some(name) = &g.series else {
@@ -147,7 +170,7 @@ impl Estimator {
             .map(|m| m[g.site])
             .ok_or_else(|| bad("the group's pattern does not match its parent".into()))?;
         let look = Lookup::new(&mol, &self.substituents);
-        self.correction(&mol, site, &self.series[series], &look)
+        self.correction(&mol, site, series, &look)
             .ok_or_else(|| bad("no correction can be computed for the parent".into()))
     }
 
@@ -160,14 +183,41 @@ impl Estimator {
         &self,
         mol: &Molecule,
         site: usize,
-        series: &Series,
+        series: usize,
         look: &Lookup,
     ) -> Option<Correction> {
-        match series.constant {
-            Constant::Hammett => hammett::correct(mol, site, series, look),
-            Constant::HammettFive => hammett::correct_five(mol, site, series, look),
-            Constant::Taft => Some(taft::correct(mol, site, series, self.aryl(), look)),
+        let s = &self.series[series];
+        match s.constant {
+            Constant::Hammett => {
+                let mut c = hammett::correct(mol, site, s, look)?;
+                if let Some(side) = self.sides[series] {
+                    self.add_side(mol, site, &self.series[side], look, &mut c);
+                }
+                Some(c)
+            }
+            Constant::HammettFive => hammett::correct_five(mol, site, s, look),
+            Constant::Taft => Some(taft::correct(mol, site, s, self.aryl(), look)),
         }
+    }
+
+    /// The side series' Taft terms for the groups on a site bonded straight to its ring.
+    fn add_side(
+        &self,
+        mol: &Molecule,
+        site: usize,
+        side: &Series,
+        look: &Lookup,
+        c: &mut Correction,
+    ) {
+        let bonded = |i: usize| mol.adjacency[site].iter().any(|&(x, _)| x == i);
+        let Some(ipso) = c.ipso.filter(|&i| i != site && bonded(i)) else {
+            return;
+        };
+        let s = taft::side(mol, site, ipso, side, self.aryl(), look);
+        c.unknown += s.unknown;
+        c.side_sd = side.sd;
+        c.side_shift = s.shift();
+        c.terms.extend(s.terms);
     }
 
     /// Corrects `site` (found with `groups[g]`) in place.
@@ -185,7 +235,7 @@ impl Estimator {
             return;
         };
         let series = &self.series[link.series];
-        let Some(c) = self.correction(mol, site.atom, series, look) else {
+        let Some(c) = self.correction(mol, site.atom, link.series, look) else {
             site.source = format!(
                 "estimate: {} (no {} ring found); {}",
                 group.name, series.name, group.source
@@ -263,12 +313,19 @@ fn widen_range(
         systematic = (systematic - orthos(p) * WIDEN_ORTHO).max(0.0);
         net -= p.shift();
     }
+    // A side series counts with its sd where its terms differ from the parent's.
+    let side_net = c.side_shift - parent.map_or(0.0, |p| p.side_shift);
+    let side_sd = if side_net.abs() > 0.01 {
+        c.side_sd
+    } else {
+        0.0
+    };
     // The rho error scales the net shift as a whole.
     term_sq += (WIDEN_PER_SHIFT * net).powi(2);
     let from_series_base = parent.is_none() && (series.base - group.pka).abs() > 0.01;
     let corrected = net.abs() > 0.01 || term_sq > 1e-6 || from_series_base;
     let method = if corrected {
-        Z90 * (series.sd.powi(2) + term_sq).sqrt()
+        Z90 * (series.sd.powi(2) + side_sd.powi(2) + term_sq).sqrt()
     } else {
         0.0
     };

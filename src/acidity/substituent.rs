@@ -65,6 +65,9 @@ pub struct Series {
     /// Lowest sum of sigma* the series takes (Taft series of ammonium ions: plain alkyl
     /// groups stop raising the pKa beyond a plateau).
     pub sigma_floor: Option<f64>,
+    /// A Taft series for the groups on the site atom besides its ring (Hammett series only):
+    /// the N-alkyl groups of N-alkylanilinium ions.
+    pub side: Option<String>,
     pub source: String,
 }
 
@@ -101,6 +104,9 @@ pub struct SeriesRow {
     /// Lowest sum of sigma* (Taft series only); missing means none.
     #[serde(default)]
     pub sigma_floor: Option<f64>,
+    /// Taft series for the site atom's other groups (Hammett series only); missing means none.
+    #[serde(default)]
+    pub side: Option<String>,
 }
 
 impl SubstituentRow {
@@ -160,6 +166,10 @@ impl SeriesRow {
         if self.sigma_floor.is_some() && constant != Constant::Taft {
             return Err(bad("sigma_floor belongs to taft series only".into()));
         }
+        let side = self.side.filter(|name| !name.is_empty());
+        if side.is_some() && constant != Constant::Hammett {
+            return Err(bad("side belongs to hammett series only".into()));
+        }
         let sd = match self.sd {
             Some(sd) if sd.is_finite() && sd >= 0.0 => sd,
             Some(sd) => return Err(bad(format!("sd {sd} must be finite and >= 0"))),
@@ -175,6 +185,7 @@ impl SeriesRow {
             attenuation,
             sd,
             sigma_floor: self.sigma_floor,
+            side,
             source: self.source,
         })
     }

@@ -29,33 +29,7 @@ pub fn correct(
     let mut visited = vec![false; mol.atoms.len()];
     visited[site] = true;
     visited[centre] = true;
-    let mut c = Correction::default();
-    for &(r, bond) in &mol.adjacency[centre] {
-        if visited[r] || mol.bonds[bond].order != Order::Single {
-            continue;
-        }
-        let mut walk = Walk {
-            mol,
-            look,
-            attenuation: series.attenuation,
-            aryl,
-            visited: &mut visited,
-            unknown: 0,
-        };
-        let sigma = walk.group(r, centre, 1);
-        c.unknown += walk.unknown;
-        let name = look
-            .at(r, Some(centre), Position::Attached)
-            .map_or("alkyl", |row| row.name.as_str());
-        c.terms.push(Term {
-            label: name.to_string(),
-            sigma,
-            shift: -series.rho * sigma,
-            ortho: false,
-            stand_in: false,
-            inductive: None,
-        });
-    }
+    let mut c = groups_on(mol, centre, &mut visited, series, aryl, look, "");
     if let Some(floor) = series.sigma_floor {
         let sum: f64 = c.terms.iter().map(|t| t.sigma).sum();
         if sum < floor {
@@ -69,6 +43,74 @@ pub fn correct(
                 inductive: None,
             });
         }
+    }
+    c
+}
+
+/// The Taft terms of the groups on a site bonded to an aromatic ring at `ring_atom`, besides
+/// that ring (the N-alkyl groups of an N-alkylaniline): the aromatic ring's own atoms are not
+/// walked into, so a chain that closes back onto it (tetrahydroquinoline) ends there.
+pub fn side(
+    mol: &Molecule,
+    site: usize,
+    ring_atom: usize,
+    series: &Series,
+    aryl: Option<&Series>,
+    look: &Lookup,
+) -> Correction {
+    let mut visited = vec![false; mol.atoms.len()];
+    visited[site] = true;
+    let aromatic = |r: &&Vec<usize>| r.iter().all(|&a| mol.atoms[a].aromatic);
+    for ring in mol
+        .rings
+        .rings
+        .iter()
+        .filter(|r| r.contains(&ring_atom))
+        .filter(aromatic)
+    {
+        for &a in ring {
+            visited[a] = true;
+        }
+    }
+    groups_on(mol, site, &mut visited, series, aryl, look, "N-")
+}
+
+/// One term per group singly bonded to `centre` and not yet visited.
+fn groups_on(
+    mol: &Molecule,
+    centre: usize,
+    visited: &mut Vec<bool>,
+    series: &Series,
+    aryl: Option<&Series>,
+    look: &Lookup,
+    prefix: &str,
+) -> Correction {
+    let mut c = Correction::default();
+    for &(r, bond) in &mol.adjacency[centre] {
+        if visited[r] || mol.bonds[bond].order != Order::Single {
+            continue;
+        }
+        let mut walk = Walk {
+            mol,
+            look,
+            attenuation: series.attenuation,
+            aryl,
+            visited,
+            unknown: 0,
+        };
+        let sigma = walk.group(r, centre, 1);
+        c.unknown += walk.unknown;
+        let name = look
+            .at(r, Some(centre), Position::Attached)
+            .map_or("alkyl", |row| row.name.as_str());
+        c.terms.push(Term {
+            label: format!("{prefix}{name}"),
+            sigma,
+            shift: -series.rho * sigma,
+            ortho: false,
+            stand_in: false,
+            inductive: None,
+        });
     }
     c
 }

@@ -44,6 +44,11 @@ pub const MIGRATIONS: &[(u32, &str, &str)] = &[
         "series_floor",
         include_str!("../../migrations/0008_series_floor.sql"),
     ),
+    (
+        9,
+        "series_side",
+        include_str!("../../migrations/0009_series_side.sql"),
+    ),
 ];
 
 /// Applies, in order, every migration the store has not recorded (by version, not by the

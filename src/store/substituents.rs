@@ -68,7 +68,7 @@ pub fn refresh(tx: &Transaction) -> Result<()> {
     }
     let mut insert = tx.prepare(
         "INSERT INTO builtin_series (name, constant, rho, base, para, ortho_shift, attenuation,
-         source, sd, sigma_floor) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10)",
+         source, sd, sigma_floor, side) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11)",
     )?;
     for row in reader(SERIES_CSV).deserialize::<SeriesRow>() {
         let s = row.map_err(csv_error("series.csv"))?;
@@ -82,7 +82,8 @@ pub fn refresh(tx: &Transaction) -> Result<()> {
             s.attenuation,
             s.source,
             s.sd,
-            s.sigma_floor
+            s.sigma_floor,
+            s.side
         ])?;
     }
     let mut update =
@@ -122,7 +123,7 @@ impl Store {
     pub fn series(&self) -> Result<Vec<SeriesRow>> {
         let mut stmt = self.connection().prepare(
             "SELECT name, constant, rho, base, para, ortho_shift, attenuation, source, sd,
-             sigma_floor FROM builtin_series ORDER BY name",
+             sigma_floor, side FROM builtin_series ORDER BY name",
         )?;
         let rows = stmt.query_map([], |r| {
             Ok(SeriesRow {
@@ -136,6 +137,7 @@ impl Store {
                 source: r.get(7)?,
                 sd: r.get(8)?,
                 sigma_floor: r.get(9)?,
+                side: r.get(10)?,
             })
         })?;
         Ok(rows.collect::<std::result::Result<_, _>>()?)
