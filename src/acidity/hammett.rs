@@ -134,9 +134,9 @@ fn para_acceptor_at_ring_n(
 const CROSS_RING: f64 = 0.48;
 
 /// Share of a net donor's sigma_p (below zero and below its sigma_m: amino, alkoxy, alkyl)
-/// that reaches the site from a fused ring position
-/// conjugated with it (an odd number of bonds from the ring atom nearest the site, as
-/// ortho and para are in one ring) and not next to the fusion: 7-aminoquinoline 6.65 against
+/// that reaches the site from a fused ring position conjugated with it (an odd number of
+/// bonds from the ring atom nearest the site, as ortho and para are in one ring) and not next
+/// to the fusion: 7-aminoquinoline 6.65 against
 /// quinoline 4.94 and 6-aminoisoquinoline 7.17 against isoquinoline 5.40 (rho 5.9, sigma_p
 /// of amino -0.66) give 0.44 and 0.45 (Albert, Goldacre & Phillips, J. Chem. Soc. 1948, 2240,
 /// from memory; neither compound is in the calibration set). Positions next to the fusion
@@ -145,7 +145,8 @@ const CROSS_RING: f64 = 0.48;
 const CROSS_RING_CONJUGATED: f64 = 0.45;
 
 /// Substituents on a fused six-membered aromatic ring (its own atoms next to the fusion count
-/// already as attached groups). Each counts with its sigma_m times `CROSS_RING`. With
+/// already as attached groups). Each counts with its sigma_m times `CROSS_RING`, a donor at
+/// a conjugated position with its sigma_p times `CROSS_RING_CONJUGATED`. With
 /// `far_aza`, an aza member of the fused ring that is not next to the fusion (N6 or N7 seen
 /// from a quinoline N1) counts the same way, as a ring N for C-H substituent on that ring:
 /// 2,6-naphthyridine 3.9 and 2,7-naphthyridine 3.4 against isoquinoline 5.40 (rho 5.9) give
