@@ -739,3 +739,14 @@ fn thioacylamino_groups_take_the_acylamino_constants() {
         acetyl.source
     );
 }
+
+#[test]
+fn an_acyl_on_an_aromatic_n_counts_as_an_amide() {
+    // By analogy (data/substituents.csv): a 1-pyrrolylcarbonyl group takes the carboxamide
+    // constants, so its phenol reads as 4-hydroxybenzamide's estimate, and the substituent is
+    // not left without constants.
+    let amide = main_site("NC(=O)c1ccc(O)cc1", Kind::Acid);
+    let pyrrolyl = main_site("O=C(c1ccc(O)cc1)n1cccc1", Kind::Acid);
+    assert!((amide.pka - pyrrolyl.pka).abs() < 1e-9, "{}", pyrrolyl.source);
+    assert!(!pyrrolyl.source.contains("without constants"), "{}", pyrrolyl.source);
+}
