@@ -817,3 +817,27 @@ fn an_n_aryl_nitrogen_in_a_chain_withdraws_like_its_sigma_star() {
         );
     }
 }
+
+#[test]
+fn cyano_nitro_and_sulfonyl_guanidines_are_not_bases_in_water() {
+    // Cyanoguanidine about -0.4, nitroguanidine about -0.9, sulfaguanidine below 1 (Perrin
+    // 1965, from memory): no site, whichever tautomer the SMILES writes.
+    let hb = Handbook::builtin().unwrap();
+    for smiles in [
+        "NC(N)=NC#N",
+        "NC(=N)NC#N",
+        "NC(N)=N[N+](=O)[O-]",
+        "NC(=N)N[N+](=O)[O-]",
+        "CC(=N)NC#N",
+    ] {
+        let p = Profile::new(smiles, &hb).unwrap();
+        assert!(p.sites.is_empty(), "{smiles}: {:?}", p.sites);
+    }
+    // Cimetidine's only base in water is its imidazole (6.8, from memory): the cyanoguanidine
+    // is not a site in either spelling.
+    for smiles in ["CN=C(NC#N)NCCSCc1nc[nH]c1C", "CNC(=NC#N)NCCSCc1nc[nH]c1C"] {
+        let p = Profile::new(smiles, &hb).unwrap();
+        assert_eq!(p.sites.len(), 1, "{smiles}: {:?}", p.sites);
+        assert!(p.sites[0].group.starts_with("imidazole"), "{smiles}");
+    }
+}
