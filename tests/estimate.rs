@@ -841,3 +841,24 @@ fn cyano_nitro_and_sulfonyl_guanidines_are_not_bases_in_water() {
         assert!(p.sites[0].group.starts_with("imidazole"), "{smiles}");
     }
 }
+
+#[test]
+fn ring_enols_next_to_a_ring_carbonyl_are_vinylogous_acids() {
+    // 4-Hydroxycoumarin 4.1 and warfarin 5.0 (Serjeant & Dempsey 1979 and the drug's
+    // monographs, from memory): acids near a carboxylic acid, not phenols near 8.
+    for (smiles, measured) in [
+        ("Oc1cc(=O)oc2ccccc12", 4.1),
+        ("CC(=O)CC(c1ccccc1)c1c(O)c2ccccc2oc1=O", 5.0),
+    ] {
+        let s = main_site(smiles, Kind::Acid);
+        assert!(s.group.starts_with("vinylogous"), "{smiles}: {}", s.group);
+        assert!(
+            s.pka_low <= measured && measured <= s.pka_high,
+            "{smiles}: {}",
+            s.pka
+        );
+    }
+    // A lactim O-H next to a ring N is not one (it is read by the tautomer rules instead).
+    let s = main_site("CN(C)c1nc(O)cc(O)n1", Kind::Acid);
+    assert!(!s.group.starts_with("vinylogous"), "{}", s.group);
+}
