@@ -256,7 +256,7 @@ impl Estimator {
             site.ring = c.ipso.map(|ipso| RingSite {
                 rho: series.rho,
                 ipso,
-                para_minus: series.para_minus,
+                para: series.para,
             });
         }
         site.source = describe(group, series, &c, link.parent.as_ref());

@@ -68,7 +68,7 @@ fn ring_terms(
             add(
                 &mut c,
                 series,
-                row.sigma_at(distance, series.para_minus, in_plane),
+                row.sigma_at(distance, series.para, in_plane),
                 distance,
                 &row.name,
                 false,
@@ -92,7 +92,7 @@ fn ring_terms(
                         row,
                         distance,
                         in_plane,
-                        row.sigma_at(distance, series.para_minus, in_plane),
+                        row.sigma_at(distance, series.para, in_plane),
                     ),
                     distance,
                     &row.name,

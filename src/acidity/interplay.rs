@@ -22,6 +22,7 @@ use serde::{Deserialize, Serialize};
 use super::group::Kind;
 use super::profile::Profile;
 use super::sites::Site as GroupSite;
+use super::substituent::Para;
 use crate::chem::molecule::Molecule;
 use crate::equilibrium::Site;
 use crate::equilibrium::microstates::{self, Coupling, MAX_COUPLED_SITES};
@@ -40,6 +41,7 @@ struct IonizedRow {
     delta_sigma_m: f64,
     delta_sigma_p: f64,
     delta_sigma_minus: f64,
+    delta_sigma_minus_acceptors: f64,
     #[allow(dead_code)]
     source: String,
 }
@@ -52,8 +54,9 @@ fn table_reader(text: &str) -> csv::Reader<&[u8]> {
 }
 
 /// One row of `data/ionized_sigma.csv`: group, bonds from the site to its ring atom, and the
-/// sigma changes meta, para, para (sigma-minus).
-type Ionized = (String, usize, f64, f64, f64);
+/// sigma changes meta and para under each para constant (sigma_p, sigma-minus, sigma-minus
+/// for acceptors only).
+type Ionized = (String, usize, f64, [f64; 3]);
 
 /// Per group name: the change of its Hammett sigma when the site ionizes.
 fn ionized_sigma() -> Result<&'static [Ionized]> {
@@ -64,17 +67,15 @@ fn ionized_sigma() -> Result<&'static [Ionized]> {
                 .deserialize::<IonizedRow>()
                 .map(|r| {
                     let r = r.map_err(|e| e.to_string())?;
-                    let all = [r.delta_sigma_m, r.delta_sigma_p, r.delta_sigma_minus];
-                    if !all.iter().all(|d| d.is_finite()) {
-                        return Err(format!("{}: changes must be finite", r.group));
-                    }
-                    Ok((
-                        r.group,
-                        r.reach,
-                        r.delta_sigma_m,
+                    let para = [
                         r.delta_sigma_p,
                         r.delta_sigma_minus,
-                    ))
+                        r.delta_sigma_minus_acceptors,
+                    ];
+                    if !r.delta_sigma_m.is_finite() || !para.iter().all(|d| d.is_finite()) {
+                        return Err(format!("{}: changes must be finite", r.group));
+                    }
+                    Ok((r.group, r.reach, r.delta_sigma_m, para))
                 })
                 .collect()
         })
@@ -90,8 +91,13 @@ fn ring_interaction(mol: &Molecule, i: &GroupSite, j: &GroupSite) -> Option<f64>
     let table = ionized_sigma().ok()?;
     let one_way = |from: &GroupSite, to: &GroupSite| -> Option<f64> {
         let ring = from.ring?;
-        let &(_, reach, m, p, minus) = table.iter().find(|row| row.0 == to.group)?;
-        let p = if ring.para_minus { minus } else { p };
+        let &(_, reach, m, [p, minus, minus_acceptors]) =
+            table.iter().find(|row| row.0 == to.group)?;
+        let p = match ring.para {
+            Para::Sigma => p,
+            Para::Minus => minus,
+            Para::MinusForAcceptors => minus_acceptors,
+        };
         let (other, bonds) = crate::acidity::hammett::ipso(mol, to.atom)?;
         // The table's change belongs to the group at its own distance from the ring.
         if bonds != reach {

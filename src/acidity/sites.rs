@@ -47,8 +47,8 @@ pub struct Site {
 pub struct RingSite {
     pub rho: f64,
     pub ipso: usize,
-    /// The series takes sigma-minus for para groups.
-    pub para_minus: bool,
+    /// Which constant the series takes for para groups.
+    pub para: super::substituent::Para,
 }
 
 /// The sites of `mol` under `groups` (table order is priority), sorted by atom index.

@@ -46,6 +46,21 @@ pub enum Constant {
     Taft,
 }
 
+/// Which constant a para substituent takes.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Para {
+    /// sigma_p.
+    Sigma,
+    /// sigma-minus where the row has one (the site's charge conjugates with the ring: a
+    /// phenoxide or thiophenoxide); a donor's sigma-minus is what it does to such an anion.
+    Minus,
+    /// sigma-minus for acceptors, sigma_p for donors (a neutral site whose lone pair
+    /// conjugates with the ring, as in anilines: a para donor there acts with its full
+    /// sigma_p, p-anisidine 5.34 and p-toluidine 5.08 against aniline 4.60, rho 2.89, give
+    /// -0.26 and -0.17; Perrin 1965, from memory).
+    MinusForAcceptors,
+}
+
 /// One compiled series row.
 #[derive(Debug, Clone)]
 pub struct Series {
@@ -54,8 +69,8 @@ pub struct Series {
     pub rho: f64,
     /// pKa at zero sigma sum.
     pub base: f64,
-    /// Para substituents use sigma-minus (the site's charge conjugates with the ring).
-    pub para_minus: bool,
+    /// Which constant para substituents take.
+    pub para: Para,
     /// Extra pKa change per ortho substituent, beyond its sigma_o.
     pub ortho_shift: f64,
     /// Factor per intervening saturated carbon (Taft series).
@@ -147,12 +162,13 @@ impl SeriesRow {
             other => return Err(bad(format!("unknown constant '{other}'"))),
         };
         let mut constant = constant;
-        let para_minus = match self.para.as_deref() {
-            None | Some("") | Some("sigma_p") => false,
-            Some("sigma_minus") => true,
+        let para = match self.para.as_deref() {
+            None | Some("") | Some("sigma_p") => Para::Sigma,
+            Some("sigma_minus") => Para::Minus,
+            Some("sigma_minus_acceptors") => Para::MinusForAcceptors,
             Some("five_ring") if constant == Constant::Hammett => {
                 constant = Constant::HammettFive;
-                false
+                Para::Sigma
             }
             Some(other) => return Err(bad(format!("unknown para constant '{other}'"))),
         };
@@ -180,7 +196,7 @@ impl SeriesRow {
             constant,
             rho: self.rho,
             base: self.base,
-            para_minus,
+            para,
             ortho_shift: self.ortho_shift.unwrap_or(0.0),
             attenuation,
             sd,
@@ -196,12 +212,13 @@ impl Substituent {
     /// stand-in (sigma_p for a missing sigma_o). `ring_n_site`: the site is a pyridine-type
     /// ring N itself (not a lactam N-H), where an ortho group takes `sigma_o_aza` when it has
     /// one.
-    pub fn sigma_at(&self, distance: usize, para_minus: bool, ring_n_site: bool) -> (f64, bool) {
+    pub fn sigma_at(&self, distance: usize, para: Para, ring_n_site: bool) -> (f64, bool) {
         let para = || {
-            if para_minus {
-                self.sigma_minus.or(self.sigma_p)
-            } else {
-                self.sigma_p
+            let donor = self.sigma_p.is_some_and(|p| p < 0.0);
+            match para {
+                Para::Minus => self.sigma_minus.or(self.sigma_p),
+                Para::MinusForAcceptors if !donor => self.sigma_minus.or(self.sigma_p),
+                _ => self.sigma_p,
             }
             .unwrap_or(0.0)
         };
@@ -239,13 +256,23 @@ mod tests {
     }
 
     #[test]
-    fn para_minus_is_used_only_where_the_series_asks() {
+    fn sigma_minus_is_used_only_where_the_series_asks() {
         let s = row("attached").compile().unwrap();
-        assert_eq!(s.sigma_at(3, true, false), (1.27, false));
-        assert_eq!(s.sigma_at(3, false, false), (0.78, false));
-        assert_eq!(s.sigma_at(2, true, false), (0.71, false));
+        assert_eq!(s.sigma_at(3, Para::Minus, false), (1.27, false));
+        assert_eq!(s.sigma_at(3, Para::MinusForAcceptors, false), (1.27, false));
+        assert_eq!(s.sigma_at(3, Para::Sigma, false), (0.78, false));
+        assert_eq!(s.sigma_at(2, Para::Minus, false), (0.71, false));
         // No sigma_o: the para value stands in and says so.
-        assert_eq!(s.sigma_at(1, false, false), (0.78, true));
+        assert_eq!(s.sigma_at(1, Para::Sigma, false), (0.78, true));
+        // A donor keeps sigma_p where only acceptors take sigma-minus.
+        let mut donor = row("attached");
+        (donor.sigma_p, donor.sigma_minus) = (Some(-0.27), Some(-0.10));
+        let d = donor.compile().unwrap();
+        assert_eq!(d.sigma_at(3, Para::Minus, false), (-0.10, false));
+        assert_eq!(
+            d.sigma_at(3, Para::MinusForAcceptors, false),
+            (-0.27, false)
+        );
     }
 
     #[test]
