@@ -77,8 +77,8 @@ pub struct Series {
     pub attenuation: f64,
     /// Standard deviation of the series' equation, pK units.
     pub sd: f64,
-    /// Lowest sum of sigma* the series takes (Taft series of ammonium ions: plain alkyl
-    /// groups stop raising the pKa beyond a plateau).
+    /// Lowest sum of the donating (negative) sigma* terms (Taft series of ammonium ions:
+    /// alkyl groups stop raising the pKa beyond a plateau, beside withdrawing groups too).
     pub sigma_floor: Option<f64>,
     /// A Taft series for the groups on the site atom besides its ring (Hammett series only):
     /// the N-alkyl groups of N-alkylanilinium ions.

@@ -31,7 +31,9 @@ pub fn correct(
     visited[centre] = true;
     let mut c = groups_on(mol, centre, &mut visited, series, aryl, look, "");
     if let Some(floor) = series.sigma_floor {
-        let sum: f64 = c.terms.iter().map(|t| t.sigma).sum();
+        // The plateau caps what the donating (alkyl) groups give, whatever withdrawing groups
+        // sit beside them on the same N.
+        let sum: f64 = c.terms.iter().map(|t| t.sigma.min(0.0)).sum();
         if sum < floor {
             let sigma = floor - sum;
             c.terms.push(Term {
