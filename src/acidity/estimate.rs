@@ -54,6 +54,20 @@ pub struct Term {
     pub inductive: Option<f64>,
 }
 
+impl Term {
+    /// A term with no ortho, stand-in or donor-saturation facts: `sigma` times the series' rho.
+    pub fn plain(label: String, sigma: f64, rho: f64) -> Term {
+        Term {
+            label,
+            sigma,
+            shift: -rho * sigma,
+            ortho: false,
+            stand_in: false,
+            inductive: None,
+        }
+    }
+}
+
 /// The substituent terms found around one site.
 #[derive(Debug, Clone, Default, PartialEq)]
 pub struct Correction {

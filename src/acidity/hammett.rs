@@ -185,14 +185,11 @@ fn cross_ring(
                     (Some(m), Some(p)) if conjugated && p < m.min(0.0) => CROSS_RING_CONJUGATED * p,
                     (m, _) => CROSS_RING * m.unwrap_or(0.0),
                 };
-                c.terms.push(Term {
-                    label: format!("fused-{}", row.name),
+                c.terms.push(Term::plain(
+                    format!("fused-{}", row.name),
                     sigma,
-                    shift: -series.rho * sigma,
-                    ortho: false,
-                    stand_in: false,
-                    inductive: None,
-                });
+                    series.rho,
+                ));
             };
             if far_aza
                 && !next_to_fusion
@@ -255,14 +252,11 @@ pub fn correct_five(
         |c: &mut Correction, row: &super::substituent::Substituent, at: usize, share: f64| {
             let sigma = share * row.sigma_m.unwrap_or(0.0);
             let label = if at == 1 { "2" } else { "3" };
-            c.terms.push(Term {
-                label: format!("{label}-{}", row.name),
+            c.terms.push(Term::plain(
+                format!("{label}-{}", row.name),
                 sigma,
-                shift: -series.rho * sigma,
-                ortho: false,
-                stand_in: false,
-                inductive: None,
-            });
+                series.rho,
+            ));
         };
     for &r in ring.iter().filter(|&&r| r != site) {
         let at = ring_distance(ring, site, r);

@@ -35,15 +35,11 @@ pub fn correct(
         // sit beside them on the same N.
         let sum: f64 = c.terms.iter().map(|t| t.sigma.min(0.0)).sum();
         if sum < floor {
-            let sigma = floor - sum;
-            c.terms.push(Term {
-                label: "alkyl plateau".to_string(),
-                sigma,
-                shift: -series.rho * sigma,
-                ortho: false,
-                stand_in: false,
-                inductive: None,
-            });
+            c.terms.push(Term::plain(
+                "alkyl plateau".to_string(),
+                floor - sum,
+                series.rho,
+            ));
         }
     }
     c
@@ -105,14 +101,8 @@ fn groups_on(
         let name = look
             .at(r, Some(centre), Position::Attached)
             .map_or("alkyl", |row| row.name.as_str());
-        c.terms.push(Term {
-            label: format!("{prefix}{name}"),
-            sigma,
-            shift: -series.rho * sigma,
-            ortho: false,
-            stand_in: false,
-            inductive: None,
-        });
+        c.terms
+            .push(Term::plain(format!("{prefix}{name}"), sigma, series.rho));
     }
     c
 }
