@@ -136,10 +136,10 @@ const CROSS_RING: f64 = 0.48;
 /// Share of a net donor's sigma_p (below zero and below its sigma_m: amino, alkoxy, alkyl)
 /// that reaches the site from a fused ring position conjugated with it (an odd number of
 /// bonds from the ring atom nearest the site, as ortho and para are in one ring) and not next
-/// to the fusion: 7-aminoquinoline 6.65 against
-/// quinoline 4.94 and 6-aminoisoquinoline 7.17 against isoquinoline 5.40 (rho 5.9, sigma_p
-/// of amino -0.66) give 0.44 and 0.45 (Albert, Goldacre & Phillips, J. Chem. Soc. 1948, 2240,
-/// from memory; neither compound is in the calibration set). Positions next to the fusion
+/// to the fusion: 7-aminoquinoline 6.65 against quinoline 4.94 and 6-aminoisoquinoline 7.17
+/// against isoquinoline 5.40 (rho 5.9, sigma_p of amino -0.66) give 0.44 and 0.45 (Albert,
+/// Goldacre & Phillips, J. Chem. Soc. 1948, 2240, from memory; neither compound is in the
+/// calibration set). Positions next to the fusion
 /// (5-aminoquinoline 5.46, 8-aminoisoquinoline 6.06) and the unconjugated ones
 /// (6-aminoquinoline 5.63, 7-aminoisoquinoline 6.20) stay with `CROSS_RING` of sigma_m.
 const CROSS_RING_CONJUGATED: f64 = 0.45;
@@ -269,12 +269,13 @@ pub fn correct_five(
             }
             // Groups on the carbon next to the substituted N (C5) act from farther away; a
             // fused ring there (benzimidazoles, purines) keeps the share its row's parent has.
-            let fused = mol
-                .rings
-                .rings
-                .iter()
-                .any(|f| f.contains(&x) && f.contains(&r));
-            let share = if fixed && at == 2 && mol.atoms[r].element == 6 && !fused {
+            let fused = || {
+                mol.rings
+                    .rings
+                    .iter()
+                    .any(|f| f.contains(&x) && f.contains(&r))
+            };
+            let share = if fixed && at == 2 && mol.atoms[r].element == 6 && !fused() {
                 FIXED_FAR
             } else {
                 1.0
