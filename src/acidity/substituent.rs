@@ -29,6 +29,9 @@ pub struct Substituent {
     /// Ortho constant next to a ring aza site (2-substituted pyridinium ions); `None` means
     /// `sigma_o` serves.
     pub sigma_o_aza: Option<f64>,
+    /// sigma* as an ammonium ion feels it, where the acid-derived one falls short; `None`
+    /// means `sigma_star` serves.
+    pub sigma_star_ammonium: Option<f64>,
     pub source: String,
 }
 
@@ -100,6 +103,8 @@ pub struct SubstituentRow {
     pub source: String,
     #[serde(default)]
     pub sigma_o_aza: Option<f64>,
+    #[serde(default)]
+    pub sigma_star_ammonium: Option<f64>,
 }
 
 /// A stored series row, before compiling.
@@ -147,6 +152,7 @@ impl SubstituentRow {
             sigma_o: self.sigma_o,
             sigma_star: self.sigma_star,
             sigma_o_aza: self.sigma_o_aza,
+            sigma_star_ammonium: self.sigma_star_ammonium,
             source: self.source,
         })
     }
@@ -252,6 +258,7 @@ mod tests {
             sigma_star: Some(4.0),
             source: "test row".into(),
             sigma_o_aza: None,
+            sigma_star_ammonium: None,
         }
     }
 

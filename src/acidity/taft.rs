@@ -95,6 +95,7 @@ fn groups_on(
             aryl,
             visited,
             unknown: 0,
+            ammonium: series.sigma_floor.is_some(),
         };
         let sigma = walk.group(r, centre, 1);
         c.unknown += walk.unknown;
@@ -131,6 +132,9 @@ struct Walk<'m, 'v> {
     aryl: Option<&'m Series>,
     visited: &'v mut Vec<bool>,
     unknown: usize,
+    /// The series is an ammonium ion's (the one with an alkyl plateau): groups take their
+    /// `sigma_star_ammonium` where they have one.
+    ammonium: bool,
 }
 
 impl Walk<'_, '_> {
@@ -139,7 +143,10 @@ impl Walk<'_, '_> {
         if let Some(s) = self
             .look
             .at(atom, Some(from), Position::Attached)
-            .and_then(|row| row.sigma_star)
+            .and_then(|row| {
+                let ammonium = row.sigma_star_ammonium.filter(|_| self.ammonium);
+                ammonium.or(row.sigma_star)
+            })
         {
             return s + self.ring_substituents(atom, from);
         }

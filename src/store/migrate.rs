@@ -49,6 +49,11 @@ pub const MIGRATIONS: &[(u32, &str, &str)] = &[
         "series_side",
         include_str!("../../migrations/0009_series_side.sql"),
     ),
+    (
+        10,
+        "substituent_ammonium",
+        include_str!("../../migrations/0010_substituent_ammonium.sql"),
+    ),
 ];
 
 /// Applies, in order, every migration the store has not recorded (by version, not by the

@@ -44,8 +44,8 @@ pub fn refresh(tx: &Transaction) -> Result<()> {
     tx.execute("DELETE FROM builtin_series", [])?;
     let mut insert = tx.prepare(
         "INSERT INTO builtin_substituents (priority, name, smarts, position, sigma_m, sigma_p,
-         sigma_minus, sigma_o, sigma_star, source, sigma_o_aza)
-         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11)",
+         sigma_minus, sigma_o, sigma_star, source, sigma_o_aza, sigma_star_ammonium)
+         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12)",
     )?;
     for (i, row) in reader(SUBSTITUENTS_CSV)
         .deserialize::<SubstituentRow>()
@@ -63,7 +63,8 @@ pub fn refresh(tx: &Transaction) -> Result<()> {
             s.sigma_o,
             s.sigma_star,
             s.source,
-            s.sigma_o_aza
+            s.sigma_o_aza,
+            s.sigma_star_ammonium
         ])?;
     }
     let mut insert = tx.prepare(
@@ -100,7 +101,8 @@ impl Store {
     pub fn substituents(&self) -> Result<Vec<SubstituentRow>> {
         let mut stmt = self.connection().prepare(
             "SELECT name, smarts, position, sigma_m, sigma_p, sigma_minus, sigma_o, sigma_star,
-             source, sigma_o_aza FROM builtin_substituents ORDER BY priority",
+             source, sigma_o_aza, sigma_star_ammonium FROM builtin_substituents
+             ORDER BY priority",
         )?;
         let rows = stmt.query_map([], |r| {
             Ok(SubstituentRow {
@@ -114,6 +116,7 @@ impl Store {
                 sigma_star: r.get(7)?,
                 source: r.get(8)?,
                 sigma_o_aza: r.get(9)?,
+                sigma_star_ammonium: r.get(10)?,
             })
         })?;
         Ok(rows.collect::<std::result::Result<_, _>>()?)
