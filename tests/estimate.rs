@@ -463,6 +463,40 @@ fn plain_alkyl_amines_stay_on_their_plateau() {
     assert!(!polar.source.contains("alkyl plateau"), "{}", polar.source);
 }
 
+/// Carboxylic acids level off too: however many alkyl groups pile up on the alpha carbon, the
+/// acid stays near pivalic acid (the plateau's source row, series.csv).
+const CARBOXYLIC_PLATEAU: &[Case] = &[
+    (
+        "OC(=O)C1CCCC1",
+        Kind::Acid,
+        4.99,
+        0.2,
+        "cyclopentanecarboxylic acid; Serjeant & Dempsey 1979 (from memory)",
+    ),
+    (
+        "CCCC(=O)O",
+        Kind::Acid,
+        4.82,
+        0.2,
+        "butanoic acid; Serjeant & Dempsey 1979 (from memory)",
+    ),
+];
+
+#[test]
+fn branched_and_cyclic_alkyl_acids_stay_on_their_plateau() {
+    check(CARBOXYLIC_PLATEAU);
+    let cage = main_site("OC(=O)C12CC3CC(CC(C3)C1)C2", Kind::Acid);
+    assert!(cage.pka < 5.1, "{}", cage.source);
+    assert!(cage.source.contains("alkyl plateau"), "{}", cage.source);
+    // A chlorine beside the alkyl groups still acts in full.
+    let polar = main_site("ClCC(C)(C)C(=O)O", Kind::Acid);
+    assert!(polar.pka < 4.5, "{}", polar.source);
+    // The acid-derived sigma* of CH2CF3 holds for an acid (the ammonium value is for cations):
+    // 4,4,4-trifluorobutanoic acid 4.16 (Serjeant & Dempsey 1979, from memory).
+    let fluoro = main_site("OC(=O)CCC(F)(F)F", Kind::Acid);
+    assert!((fluoro.pka - 4.16).abs() < 0.3, "{}", fluoro.source);
+}
+
 #[test]
 // 3.14 below is the primary ammonium rho, not pi.
 #[allow(clippy::approx_constant)]

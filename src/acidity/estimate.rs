@@ -8,7 +8,7 @@
 
 use std::collections::HashMap;
 
-use super::group::Group;
+use super::group::{Group, Kind};
 use super::lookup::Lookup;
 use super::sites::{RingSite, Site, find_sites_in};
 use super::substituent::{Constant, Series, SeriesRow, Substituent, SubstituentRow};
@@ -184,7 +184,7 @@ impl Estimator {
             .map(|m| m[g.site])
             .ok_or_else(|| bad("the group's pattern does not match its parent".into()))?;
         let look = Lookup::new(&mol, &self.substituents);
-        self.correction(&mol, site, series, &look)
+        self.correction(&mol, site, series, g.kind == Some(Kind::Base), &look)
             .ok_or_else(|| bad("no correction can be computed for the parent".into()))
     }
 
@@ -193,11 +193,14 @@ impl Estimator {
         self.aryl.map(|i| &self.series[i])
     }
 
+    /// The substituent terms of `site` by series `series`; `cation` when the site's charged
+    /// form is a cation (a base group), whose Taft groups take their ammonium-ion sigma*.
     fn correction(
         &self,
         mol: &Molecule,
         site: usize,
         series: usize,
+        cation: bool,
         look: &Lookup,
     ) -> Option<Correction> {
         let s = &self.series[series];
@@ -210,7 +213,7 @@ impl Estimator {
                 Some(c)
             }
             Constant::HammettFive => hammett::correct_five(mol, site, s, look),
-            Constant::Taft => Some(taft::correct(mol, site, s, self.aryl(), look)),
+            Constant::Taft => Some(taft::correct(mol, site, s, cation, self.aryl(), look)),
         }
     }
 
@@ -249,7 +252,8 @@ impl Estimator {
             return;
         };
         let series = &self.series[link.series];
-        let Some(c) = self.correction(mol, site.atom, link.series, look) else {
+        let cation = group.kind == Some(Kind::Base);
+        let Some(c) = self.correction(mol, site.atom, link.series, cation, look) else {
             site.source = format!(
                 "estimate: {} (no {} ring found); {}",
                 group.name, series.name, group.source

@@ -17,11 +17,13 @@ const MAX_DEPTH: usize = 4;
 
 /// The Taft terms of the site at `site`. With `aryl` (the series that turns an aryl group's
 /// ring substituents into a change of its sigma*), substituted aryl groups count with their
-/// ring substituents.
+/// ring substituents. With `cation` (an ammonium-type site) groups take their
+/// `sigma_star_ammonium` where they have one.
 pub fn correct(
     mol: &Molecule,
     site: usize,
     series: &Series,
+    cation: bool,
     aryl: Option<&Series>,
     look: &Lookup,
 ) -> Correction {
@@ -29,7 +31,13 @@ pub fn correct(
     let mut visited = vec![false; mol.atoms.len()];
     visited[site] = true;
     visited[centre] = true;
-    let mut c = groups_on(mol, centre, &mut visited, series, aryl, look, "");
+    let how = How {
+        series,
+        cation,
+        aryl,
+        look,
+    };
+    let mut c = groups_on(mol, centre, &mut visited, &how, "");
     if let Some(floor) = series.sigma_floor {
         // The plateau caps what the donating (alkyl) groups give, whatever withdrawing groups
         // sit beside them on the same N.
@@ -70,7 +78,23 @@ pub fn side(
             visited[a] = true;
         }
     }
-    groups_on(mol, site, &mut visited, series, aryl, look, "N-")
+    // An N-alkylanilinium ion is an ammonium ion too.
+    let how = How {
+        series,
+        cation: true,
+        aryl,
+        look,
+    };
+    groups_on(mol, site, &mut visited, &how, "N-")
+}
+
+/// What a walk counts with: the series, whether the site is a cation, the aryl series and the
+/// substituent lookup.
+struct How<'a> {
+    series: &'a Series,
+    cation: bool,
+    aryl: Option<&'a Series>,
+    look: &'a Lookup<'a, 'a>,
 }
 
 /// One term per group singly bonded to `centre` and not yet visited.
@@ -78,11 +102,15 @@ fn groups_on(
     mol: &Molecule,
     centre: usize,
     visited: &mut Vec<bool>,
-    series: &Series,
-    aryl: Option<&Series>,
-    look: &Lookup,
+    how: &How,
     prefix: &str,
 ) -> Correction {
+    let How {
+        series,
+        cation,
+        aryl,
+        look,
+    } = *how;
     let mut c = Correction::default();
     for &(r, bond) in &mol.adjacency[centre] {
         if visited[r] || mol.bonds[bond].order != Order::Single {
@@ -95,7 +123,7 @@ fn groups_on(
             aryl,
             visited,
             unknown: 0,
-            ammonium: series.sigma_floor.is_some(),
+            ammonium: cation,
         };
         let sigma = walk.group(r, centre, 1);
         c.unknown += walk.unknown;
@@ -132,8 +160,8 @@ struct Walk<'m, 'v> {
     aryl: Option<&'m Series>,
     visited: &'v mut Vec<bool>,
     unknown: usize,
-    /// The series is an ammonium ion's (the one with an alkyl plateau): groups take their
-    /// `sigma_star_ammonium` where they have one.
+    /// The site is an ammonium-type cation: groups take their `sigma_star_ammonium` where they
+    /// have one.
     ammonium: bool,
 }
 
