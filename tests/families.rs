@@ -547,6 +547,13 @@ fn hobt_is_one_acid_and_its_ring_n_atoms_are_not_sites() {
 /// Common reagents whose group rows were missing or did not match; handbook values.
 const REAGENTS: &[Case] = &[
     (
+        "O=C1NS(=O)(=O)c2ccccc21",
+        Kind::Acid,
+        1.6,
+        0.2,
+        "saccharin, far below open N-acylsulfonamides; Merck Index (from memory)",
+    ),
+    (
         "CC1(C)OC(=O)CC(=O)O1",
         Kind::Acid,
         4.83,
