@@ -463,6 +463,17 @@ fn plain_alkyl_amines_stay_on_their_plateau() {
     assert!(!polar.source.contains("alkyl plateau"), "{}", polar.source);
 }
 
+#[test]
+fn a_para_thioether_donates_to_a_pyridinium_ion_but_not_to_a_benzoate() {
+    // 4-(Methylthio)pyridine 5.94 against pyridine 5.23 (Perrin 1965, from memory): the S
+    // lone pair conjugates with the ring N cation (substituents.csv sigma_p_aza), while
+    // sigma_p of SMe is 0.00 on the benzoic scale (Hansch, Leo & Taft 1991, from memory).
+    let pyridine = main_site("CSc1ccncc1", Kind::Base);
+    assert!((pyridine.pka - 5.94).abs() < 0.1, "{}", pyridine.source);
+    let benzoic = main_site("CSc1ccc(cc1)C(=O)O", Kind::Acid);
+    assert!((benzoic.pka - 4.20).abs() < 0.05, "{}", benzoic.source);
+}
+
 /// Carboxylic acids level off too: however many alkyl groups pile up on the alpha carbon, the
 /// acid stays near pivalic acid (the plateau's source row, series.csv).
 const CARBOXYLIC_PLATEAU: &[Case] = &[

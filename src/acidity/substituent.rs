@@ -32,6 +32,9 @@ pub struct Substituent {
     /// sigma* as an ammonium ion feels it, where the acid-derived one falls short; `None`
     /// means `sigma_star` serves.
     pub sigma_star_ammonium: Option<f64>,
+    /// Para constant at a pyridine-type ring N site (4-substituted pyridinium ions) where
+    /// `sigma_p` falls short; `None` means `sigma_p` serves.
+    pub sigma_p_aza: Option<f64>,
     pub source: String,
 }
 
@@ -105,6 +108,8 @@ pub struct SubstituentRow {
     pub sigma_o_aza: Option<f64>,
     #[serde(default)]
     pub sigma_star_ammonium: Option<f64>,
+    #[serde(default)]
+    pub sigma_p_aza: Option<f64>,
 }
 
 /// A stored series row, before compiling.
@@ -153,6 +158,7 @@ impl SubstituentRow {
             sigma_star: self.sigma_star,
             sigma_o_aza: self.sigma_o_aza,
             sigma_star_ammonium: self.sigma_star_ammonium,
+            sigma_p_aza: self.sigma_p_aza,
             source: self.source,
         })
     }
@@ -216,8 +222,8 @@ impl SeriesRow {
 impl Substituent {
     /// The Hammett constant for a ring distance (1 ortho, 2 meta, 3 para) and whether it is a
     /// stand-in (sigma_p for a missing sigma_o). `ring_n_site`: the site is a pyridine-type
-    /// ring N itself (not a lactam N-H), where an ortho group takes `sigma_o_aza` when it has
-    /// one.
+    /// ring N itself (not a lactam N-H), where an ortho group takes `sigma_o_aza` and a para
+    /// group `sigma_p_aza` when it has one.
     pub fn sigma_at(&self, distance: usize, para: Para, ring_n_site: bool) -> (f64, bool) {
         let para = || {
             let donor = self.sigma_p.is_some_and(|p| p < 0.0);
@@ -237,6 +243,9 @@ impl Substituent {
                 None => (para(), true),
             },
             2 => (self.sigma_m.unwrap_or(0.0), false),
+            _ if ring_n_site && self.sigma_p_aza.is_some() => {
+                (self.sigma_p_aza.unwrap_or(0.0), false)
+            }
             _ => (para(), false),
         }
     }
@@ -259,6 +268,7 @@ mod tests {
             source: "test row".into(),
             sigma_o_aza: None,
             sigma_star_ammonium: None,
+            sigma_p_aza: None,
         }
     }
 

@@ -54,6 +54,11 @@ pub const MIGRATIONS: &[(u32, &str, &str)] = &[
         "substituent_ammonium",
         include_str!("../../migrations/0010_substituent_ammonium.sql"),
     ),
+    (
+        11,
+        "substituent_para_aza",
+        include_str!("../../migrations/0011_substituent_para_aza.sql"),
+    ),
 ];
 
 /// Applies, in order, every migration the store has not recorded (by version, not by the

@@ -44,8 +44,8 @@ pub fn refresh(tx: &Transaction) -> Result<()> {
     tx.execute("DELETE FROM builtin_series", [])?;
     let mut insert = tx.prepare(
         "INSERT INTO builtin_substituents (priority, name, smarts, position, sigma_m, sigma_p,
-         sigma_minus, sigma_o, sigma_star, source, sigma_o_aza, sigma_star_ammonium)
-         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12)",
+         sigma_minus, sigma_o, sigma_star, source, sigma_o_aza, sigma_star_ammonium, sigma_p_aza)
+         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13)",
     )?;
     for (i, row) in reader(SUBSTITUENTS_CSV)
         .deserialize::<SubstituentRow>()
@@ -64,7 +64,8 @@ pub fn refresh(tx: &Transaction) -> Result<()> {
             s.sigma_star,
             s.source,
             s.sigma_o_aza,
-            s.sigma_star_ammonium
+            s.sigma_star_ammonium,
+            s.sigma_p_aza
         ])?;
     }
     let mut insert = tx.prepare(
@@ -101,7 +102,7 @@ impl Store {
     pub fn substituents(&self) -> Result<Vec<SubstituentRow>> {
         let mut stmt = self.connection().prepare(
             "SELECT name, smarts, position, sigma_m, sigma_p, sigma_minus, sigma_o, sigma_star,
-             source, sigma_o_aza, sigma_star_ammonium FROM builtin_substituents
+             source, sigma_o_aza, sigma_star_ammonium, sigma_p_aza FROM builtin_substituents
              ORDER BY priority",
         )?;
         let rows = stmt.query_map([], |r| {
@@ -117,6 +118,7 @@ impl Store {
                 source: r.get(8)?,
                 sigma_o_aza: r.get(9)?,
                 sigma_star_ammonium: r.get(10)?,
+                sigma_p_aza: r.get(11)?,
             })
         })?;
         Ok(rows.collect::<std::result::Result<_, _>>()?)
