@@ -478,6 +478,22 @@ fn a_pyridinium_ion_feels_para_donors_by_its_own_constants() {
     assert!((dmap.pka - 9.70).abs() < 0.15, "{}", dmap.source);
 }
 
+#[test]
+fn a_substituted_or_heteroaryl_group_is_not_read_as_plain_phenyl() {
+    // The aryl row holds phenyl's constants; what it leaves out (a nitro group on the far ring,
+    // a ring N of a pyridyl group) is uncorrected and must widen the range, not vanish.
+    let plain = main_site("Nc1ccc(-c2ccccc2)cc1", Kind::Base);
+    let nitro = main_site("Nc1ccc(-c2ccc([N+](=O)[O-])cc2)cc1", Kind::Base);
+    let pyridyl = main_site("Nc1ccc(-c2ccccn2)cc1", Kind::Base);
+    let width = |s: &Site| s.pka_high - s.pka_low;
+    assert!(width(&nitro) > width(&plain) + 0.5, "{}", nitro.source);
+    assert!(width(&pyridyl) > width(&plain) + 0.5, "{}", pyridyl.source);
+    assert!(nitro.source.contains("without constants"), "{}", nitro.source);
+    // A fused ring is not a pendant aryl group: 2-naphthylamine keeps a narrow range.
+    let fused = main_site("Nc1ccc2ccccc2c1", Kind::Base);
+    assert!((width(&fused) - width(&plain)).abs() < 0.2, "{}", fused.source);
+}
+
 /// Carboxylic acids level off too: however many alkyl groups pile up on the alpha carbon, the
 /// acid stays near pivalic acid (the plateau's source row, series.csv).
 const CARBOXYLIC_PLATEAU: &[Case] = &[

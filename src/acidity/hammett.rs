@@ -85,20 +85,23 @@ fn ring_terms(
                 continue;
             }
             match look.at(x, Some(r), Position::Attached) {
-                Some(row) => add(
-                    &mut c,
-                    series,
-                    para_acceptor_at_ring_n(
-                        row,
+                Some(row) => {
+                    add(
+                        &mut c,
+                        series,
+                        para_acceptor_at_ring_n(
+                            row,
+                            distance,
+                            in_plane,
+                            row.sigma_at(distance, series.para, in_plane),
+                        ),
                         distance,
-                        in_plane,
-                        row.sigma_at(distance, series.para, in_plane),
-                    ),
-                    distance,
-                    &row.name,
-                    true,
-                    row.sigma_m,
-                ),
+                        &row.name,
+                        true,
+                        row.sigma_m,
+                    );
+                    c.unknown += pendant_aryl_unknowns(mol, x, ring);
+                }
                 None => c.unknown += 1,
             }
         }
@@ -289,7 +292,10 @@ pub fn correct_five(
                     if mol.atoms[r].element == 7
                         && mol.is_saturated_carbon(x)
                         && row.sigma_m.is_some_and(|m| m <= 0.0) => {}
-                Some(row) => push(&mut c, row, at, share),
+                Some(row) => {
+                    push(&mut c, row, at, share);
+                    c.unknown += pendant_aryl_unknowns(mol, x, ring);
+                }
                 None => c.unknown += 1,
             }
         }
@@ -307,6 +313,40 @@ pub fn correct_five(
 /// times sigma_m 0.71 gives 6.7, a share of 0.76 (Perrin 1965 and the drug's monographs,
 /// from memory; metronidazole is not in the calibration set).
 const FIXED_FAR: f64 = 0.75;
+
+/// What the aryl constants (those of phenyl) leave out of an aromatic ring bonded to the site's
+/// ring at `x` and not fused with it: each ring member other than carbon (a pyridyl or thiazolyl
+/// group is not a phenyl group) and each group on its members (a nitrophenyl group). Each counts
+/// as a group without constants, which widens the range; none is corrected.
+fn pendant_aryl_unknowns(mol: &Molecule, x: usize, site_ring: &[usize]) -> usize {
+    if !mol.atoms[x].aromatic {
+        return 0;
+    }
+    let fused = |r: &Vec<usize>| r.iter().any(|a| site_ring.contains(a));
+    let Some(ring) = mol
+        .rings
+        .rings
+        .iter()
+        .filter(|r| r.contains(&x) && r.iter().all(|&a| mol.atoms[a].aromatic))
+        .min_by_key(|r| r.len())
+    else {
+        return 0;
+    };
+    if fused(ring) {
+        return 0;
+    }
+    ring.iter()
+        .filter(|&&a| a != x)
+        .map(|&a| {
+            let hetero = usize::from(mol.atoms[a].element != 6);
+            let groups = mol.adjacency[a]
+                .iter()
+                .filter(|&&(y, _)| !ring.contains(&y))
+                .count();
+            hetero + groups
+        })
+        .sum()
+}
 
 /// Strong ortho/para donors below this sigma compete for one conjugation path.
 const STRONG_DONOR: f64 = -0.2;
