@@ -221,6 +221,20 @@ const FAMILIES: &[Case] = &[
 /// on imidazoles.
 const AZOLES_AND_DIAZINES: &[Case] = &[
     (
+        "Cn1cccn1",
+        Kind::Base,
+        2.06,
+        0.1,
+        "1-methylpyrazole, an alkyl beside the site N; Perrin 1965 (from memory)",
+    ),
+    (
+        "Cn1ccnc1",
+        Kind::Base,
+        7.06,
+        0.2,
+        "1-methylimidazole, an alkyl two bonds away; Perrin 1965 (from memory)",
+    ),
+    (
         "Cc1nc2ccccc2[nH]1",
         Kind::Base,
         6.19,

@@ -285,13 +285,23 @@ pub fn correct_five(
             };
             match look.at(x, Some(r), Position::Attached) {
                 // An alkyl group on the pyrrole-type N stands in for its N-H: 1-methylimidazole
-                // 7.06 against imidazole 6.99, 1-methylpyrazole 2.06 against 2.48,
-                // 1-methylbenzimidazole 5.57 against 5.53 (Perrin 1965, from memory).
+                // 7.06 against imidazole 6.99, 1-methylbenzimidazole 5.57 against 5.53 (Perrin
+                // 1965, from memory). Next to the site (pyrazoles) it costs a little:
+                // `N_ALKYL_BESIDE_SITE`.
                 // (Any alkyl group: a saturated carbon whose sigma_m does not withdraw.)
                 Some(row)
                     if mol.atoms[r].element == 7
                         && mol.is_saturated_carbon(x)
-                        && row.sigma_m.is_some_and(|m| m <= 0.0) => {}
+                        && row.sigma_m.is_some_and(|m| m <= 0.0) =>
+                {
+                    if at == 1 {
+                        c.terms.push(Term::plain(
+                            "1-alkyl beside the site".to_string(),
+                            -N_ALKYL_BESIDE_SITE / series.rho,
+                            series.rho,
+                        ));
+                    }
+                }
                 Some(row) => {
                     push(&mut c, row, at, share);
                     c.unknown += pendant_aryl_unknowns(mol, x, ring);
@@ -347,6 +357,11 @@ fn pendant_aryl_unknowns(mol: &Molecule, x: usize, site_ring: &[usize]) -> usize
         })
         .sum()
 }
+
+/// pKa change when an alkyl group replaces the H of the pyrrole-type N next to an azole site
+/// (its ortho position, so not averaged away by tautomerism): 1-methylpyrazole 2.06 against
+/// pyrazole 2.48 (Perrin 1965, from memory; neither is in the calibration set).
+const N_ALKYL_BESIDE_SITE: f64 = -0.42;
 
 /// Strong ortho/para donors below this sigma compete for one conjugation path.
 const STRONG_DONOR: f64 = -0.2;
