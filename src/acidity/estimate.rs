@@ -239,8 +239,11 @@ impl Estimator {
 
     /// Corrects `site` (found with `groups[g]`) in place.
     fn apply(&self, mol: &Molecule, site: &mut Site, group: &Group, g: usize, look: &Lookup) {
-        let Some(Some(link)) = self.links.get(g) else {
-            site.source = format!("estimate: {}; {}", group.name, group.source);
+        // Without a series, or where the series' ring is not there (a thienylacetic acid for
+        // the phenylacetic series), the group's own value stands and what surrounds the match
+        // widens the range uncorrected.
+        let uncorrected = |site: &mut Site, source: String| {
+            site.source = source;
             let n = uncorrected_substituents(mol, &site.matched);
             if n > 0 {
                 let widen = n as f64 * WIDEN_UNKNOWN;
@@ -249,15 +252,19 @@ impl Estimator {
                 site.source
                     .push_str(&format!("; {n} substituent(s) without a correction"));
             }
+        };
+        let Some(Some(link)) = self.links.get(g) else {
+            uncorrected(site, format!("estimate: {}; {}", group.name, group.source));
             return;
         };
         let series = &self.series[link.series];
         let cation = group.kind == Some(Kind::Base);
         let Some(c) = self.correction(mol, site.atom, link.series, cation, look) else {
-            site.source = format!(
+            let source = format!(
                 "estimate: {} (no {} ring found); {}",
                 group.name, series.name, group.source
             );
+            uncorrected(site, source);
             return;
         };
         let (base, shift) = match &link.parent {

@@ -36,8 +36,8 @@ pub struct Site {
     /// interplay can weigh another site's ionization on that ring by its change of sigma.
     #[serde(skip)]
     pub ring: Option<RingSite>,
-    /// The atoms of the match that claimed the site, kept for a group with no series (whose
-    /// estimate cannot correct for what hangs on them); empty otherwise.
+    /// The atoms of the match that claimed the site: where the group has no series, or its
+    /// series finds no ring to correct by, what hangs on them widens the range uncorrected.
     #[serde(skip)]
     pub matched: Vec<usize>,
 }
@@ -87,9 +87,7 @@ pub fn find_sites_in(target: &Target, groups: &[Group]) -> Vec<Site> {
             let atom = m[group.site];
             if claimed[atom].is_none() {
                 claimed[atom] = Some(g);
-                if group.series.is_none() {
-                    matched[atom] = m.to_vec();
-                }
+                matched[atom] = m.to_vec();
                 claims = true;
             }
         });
