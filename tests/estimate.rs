@@ -488,7 +488,11 @@ fn a_substituted_or_heteroaryl_group_is_not_read_as_plain_phenyl() {
     let width = |s: &Site| s.pka_high - s.pka_low;
     assert!(width(&nitro) > width(&plain) + 0.5, "{}", nitro.source);
     assert!(width(&pyridyl) > width(&plain) + 0.5, "{}", pyridyl.source);
-    assert!(nitro.source.contains("without constants"), "{}", nitro.source);
+    assert!(
+        nitro.source.contains("without constants"),
+        "{}",
+        nitro.source
+    );
     // A thiophene where the phenylacetic series wants a benzene ring: the group's value stands
     // and the ring it cannot correct for widens the range.
     let phenyl = main_site("O=C(O)Cc1ccccc1", Kind::Acid);
@@ -496,7 +500,11 @@ fn a_substituted_or_heteroaryl_group_is_not_read_as_plain_phenyl() {
     assert!(width(&thienyl) > width(&phenyl) + 0.5, "{}", thienyl.source);
     // A fused ring is not a pendant aryl group: 2-naphthylamine keeps a narrow range.
     let fused = main_site("Nc1ccc2ccccc2c1", Kind::Base);
-    assert!((width(&fused) - width(&plain)).abs() < 0.2, "{}", fused.source);
+    assert!(
+        (width(&fused) - width(&plain)).abs() < 0.2,
+        "{}",
+        fused.source
+    );
 }
 
 /// Carboxylic acids level off too: however many alkyl groups pile up on the alpha carbon, the

@@ -503,7 +503,11 @@ fn an_aryl_on_the_carbon_or_a_five_membered_ring_lowers_an_amidine() {
     let ring = main_site(&hb, "CC1=NCCN1", Kind::Base);
     assert!((ring.pka - 11.0).abs() < 0.2, "{}", ring.source);
     let both = main_site(&hb, "C1CN=C(N1)c1ccccc1", Kind::Base);
-    assert!((both.pka - (11.0 - (12.4 - 11.6))).abs() < 0.2, "{}", both.source);
+    assert!(
+        (both.pka - (11.0 - (12.4 - 11.6))).abs() < 0.2,
+        "{}",
+        both.source
+    );
     assert!(both.pka_low < both.pka && both.pka < both.pka_high);
 }
 

@@ -357,7 +357,9 @@ fn widen_range(
     systematic += c.terms.iter().filter(|t| t.stand_in).count() as f64
         * WIDEN_STAND_IN
         * series.rho.abs().min(3.0);
-    systematic += c.unknown as f64 * WIDEN_UNKNOWN;
+    // Groups without constants that the parent has too are in its measured value.
+    let unknown = c.unknown.saturating_sub(parent.map_or(0, |p| p.unknown));
+    systematic += unknown as f64 * WIDEN_UNKNOWN;
     let extrapolated = (pka - group.pka).abs() - EXTRAPOLATION_START;
     if extrapolated > 0.0 {
         systematic += WIDEN_EXTRAPOLATION * extrapolated;

@@ -62,18 +62,22 @@ fn ring_terms(
     };
     for &r in ring {
         let distance = ring_distance(ring, ipso, r);
-        if r != ipso
-            && let Some(row) = look.at(r, None, Position::Ring)
-        {
-            add(
-                &mut c,
-                series,
-                row.sigma_at(distance, series.para, in_plane),
-                distance,
-                &row.name,
-                false,
-                None,
-            );
+        if r != ipso {
+            match look.at(r, None, Position::Ring) {
+                Some(row) => add(
+                    &mut c,
+                    series,
+                    row.sigma_at(distance, series.para, in_plane),
+                    distance,
+                    &row.name,
+                    false,
+                    None,
+                ),
+                // A ring member other than carbon with no ring row (the N of a lactam, the O of
+                // a pyrone) has no constant: it widens the range.
+                None if mol.atoms[r].element != 6 => c.unknown += 1,
+                None => {}
+            }
         }
         for &(x, _) in &mol.adjacency[r] {
             if ring.contains(&x) || Some(x) == came_from || x == site {
