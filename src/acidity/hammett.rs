@@ -8,7 +8,7 @@ use std::collections::VecDeque;
 use super::estimate::{Correction, Term};
 use super::lookup::Lookup;
 use super::substituent::{Position, Series};
-use crate::chem::molecule::Molecule;
+use crate::chem::molecule::{Molecule, Order};
 
 /// How far from the site (in bonds) the ring may start: phenylacetic acid O-C-C-c is three.
 const MAX_REACH: usize = 3;
@@ -105,6 +105,7 @@ fn ring_terms(
                         row.sigma_m,
                     );
                     c.unknown += pendant_aryl_unknowns(mol, x, ring);
+                    c.unknown += extension_unknowns(mol, x, r, ring);
                 }
                 None => c.unknown += 1,
             }
@@ -366,6 +367,43 @@ fn pendant_aryl_unknowns(mol: &Molecule, x: usize, site_ring: &[usize]) -> usize
 /// (its ortho position, so not averaged away by tautomerism): 1-methylpyrazole 2.06 against
 /// pyrazole 2.48 (Perrin 1965, from memory; neither is in the calibration set).
 const N_ALKYL_BESIDE_SITE: f64 = -0.42;
+
+/// What the vinyl, ethynyl and azo constants (CH=CH2, C#CH, N=NPh) leave out of a conjugated
+/// group bonded to the site's ring at `x` (from ring atom `r`): each group on its far atom
+/// (the phenyl of a styryl group) besides the phenyl the azo row holds, and what hangs on an
+/// aryl group there. Each counts as a group without constants.
+fn extension_unknowns(mol: &Molecule, x: usize, r: usize, site_ring: &[usize]) -> usize {
+    if mol.atoms[x].aromatic {
+        return 0;
+    }
+    let far = mol.adjacency[x].iter().find(|&&(y, b)| {
+        y != r
+            && !mol.atoms[y].aromatic
+            && matches!(mol.bonds[b].order, Order::Double | Order::Triple)
+    });
+    let Some(&(y, b)) = far else {
+        return 0;
+    };
+    let azo = mol.atoms[x].element == 7 && mol.atoms[y].element == 7;
+    let vinyl = mol.atoms[x].element == 6 && mol.atoms[y].element == 6;
+    if !(azo || vinyl) || mol.bonds[b].order == Order::Quadruple {
+        return 0;
+    }
+    mol.adjacency[y]
+        .iter()
+        .filter(|&&(z, _)| z != x)
+        .map(|&(z, _)| {
+            let aryl = mol.atoms[z].aromatic;
+            // The azo row's own group is a phenyl; anything else on its far N is not.
+            let own = usize::from(!(azo && aryl));
+            own + if aryl {
+                pendant_aryl_unknowns(mol, z, site_ring)
+            } else {
+                0
+            }
+        })
+        .sum()
+}
 
 /// Strong ortho/para donors below this sigma compete for one conjugation path.
 const STRONG_DONOR: f64 = -0.2;
