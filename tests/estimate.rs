@@ -493,6 +493,10 @@ fn a_substituted_or_heteroaryl_group_is_not_read_as_plain_phenyl() {
         "{}",
         nitro.source
     );
+    // The same past a vinyl group: a nitrostyryl group is not a vinyl group.
+    let vinyl = main_site("Nc1ccc(C=C)cc1", Kind::Base);
+    let styryl = main_site("Nc1ccc(C=Cc2ccc([N+](=O)[O-])cc2)cc1", Kind::Base);
+    assert!(width(&styryl) > width(&vinyl) + 0.5, "{}", styryl.source);
     // A thiophene where the phenylacetic series wants a benzene ring: the group's value stands
     // and the ring it cannot correct for widens the range.
     let phenyl = main_site("O=C(O)Cc1ccccc1", Kind::Acid);
