@@ -291,7 +291,8 @@ impl Estimator {
 /// Substituents on the atoms of a group that has no series, so the estimate cannot correct for
 /// them: atoms bonded to the group's matched atoms that are neither part of the match nor a
 /// plain alkyl carbon (saturated, bonded to no heteroatom or unsaturated atom besides the
-/// group). Each widens the range as a substituent without constants does in a series.
+/// group), and for an aryl neighbour what its ring holds besides phenyl's carbons. Each widens
+/// the range as a substituent without constants does in a series.
 fn uncorrected_substituents(mol: &Molecule, matched: &[usize]) -> usize {
     let plain_alkyl = |x: usize| {
         mol.is_saturated_carbon(x)
@@ -299,15 +300,34 @@ fn uncorrected_substituents(mol: &Molecule, matched: &[usize]) -> usize {
                 .iter()
                 .all(|&(y, _)| matched.contains(&y) || mol.is_saturated_carbon(y))
     };
+    // The ring of a matched aromatic atom (the aryl of an arylacetic acid or a benzamidine) is
+    // the group's own phenyl: only what it holds besides phenyl's carbons counts.
+    let own_ring = |a: usize, x: usize| {
+        mol.atoms[a].aromatic
+            && mol.atoms[x].aromatic
+            && mol.rings.rings.iter().any(|r| r.contains(&a) && r.contains(&x))
+    };
     let mut seen: Vec<usize> = Vec::new();
+    let mut beyond = 0;
     for &a in matched {
         for &(x, _) in &mol.adjacency[a] {
-            if !matched.contains(&x) && !seen.contains(&x) && !plain_alkyl(x) {
+            if !matched.contains(&x) && !seen.contains(&x) && !own_ring(a, x) && !plain_alkyl(x)
+            {
                 seen.push(x);
             }
         }
+        if mol.atoms[a].aromatic {
+            let others: Vec<usize> = matched.iter().copied().filter(|&m| m != a).collect();
+            beyond += hammett::pendant_aryl_unknowns(mol, a, &others);
+        }
     }
-    seen.len()
+    // An aryl neighbour also brings its ring's hetero members and groups (a pyrazinyl group is
+    // more than one unknown).
+    beyond += seen
+        .iter()
+        .map(|&x| hammett::pendant_aryl_unknowns(mol, x, matched))
+        .sum::<usize>();
+    seen.len() + beyond
 }
 
 /// Half-widths below and above a corrected estimate, as a nominal 90 % interval: the group's

@@ -330,10 +330,11 @@ pub fn correct_five(
 const FIXED_FAR: f64 = 0.75;
 
 /// What the aryl constants (those of phenyl) leave out of an aromatic ring bonded to the site's
-/// ring at `x` and not fused with it: each ring member other than carbon (a pyridyl or thiazolyl
-/// group is not a phenyl group) and each group on its members (a nitrophenyl group). Each counts
-/// as a group without constants, which widens the range; none is corrected.
-fn pendant_aryl_unknowns(mol: &Molecule, x: usize, site_ring: &[usize]) -> usize {
+/// ring at `x` and not fused with it (sharing no atom with `site_ring`): each ring member other
+/// than carbon (a pyridyl or thiazolyl group is not a phenyl group) and each group on its
+/// members (a nitrophenyl group). Each counts as a group without constants, which widens the
+/// range; none is corrected.
+pub(crate) fn pendant_aryl_unknowns(mol: &Molecule, x: usize, site_ring: &[usize]) -> usize {
     if !mol.atoms[x].aromatic {
         return 0;
     }
