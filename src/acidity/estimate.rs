@@ -14,7 +14,7 @@ use super::sites::{RingSite, Site, find_sites_in};
 use super::substituent::{Constant, Series, SeriesRow, Substituent, SubstituentRow};
 use super::{hammett, taft};
 use crate::chem::molecule::Molecule;
-use crate::chem::smarts::Target;
+use crate::chem::smarts::{Pattern, Target};
 use crate::error::{Error, Result};
 
 /// Relative error of a sigma value and of a rho outside their calibration sets: each good to
@@ -244,7 +244,7 @@ impl Estimator {
         // widens the range uncorrected.
         let uncorrected = |site: &mut Site, source: String| {
             site.source = source;
-            let n = uncorrected_substituents(mol, &site.matched);
+            let n = uncorrected_substituents(mol, &site.matched, &group.pattern);
             if n > 0 {
                 let widen = n as f64 * WIDEN_UNKNOWN;
                 site.pka_low -= widen;
@@ -293,17 +293,24 @@ impl Estimator {
 /// plain alkyl carbon (saturated, bonded to no heteroatom or unsaturated atom besides the
 /// group), and for an aryl neighbour what its ring holds besides phenyl's carbons. Each widens
 /// the range as a substituent without constants does in a series.
-fn uncorrected_substituents(mol: &Molecule, matched: &[usize]) -> usize {
+fn uncorrected_substituents(mol: &Molecule, matched: &[usize], pattern: &Pattern) -> usize {
     let plain_alkyl = |x: usize| {
         mol.is_saturated_carbon(x)
             && mol.adjacency[x]
                 .iter()
                 .all(|&(y, _)| matched.contains(&y) || mol.is_saturated_carbon(y))
     };
-    // The ring of a matched aromatic atom (the aryl of an arylacetic acid or a benzamidine) is
-    // the group's own phenyl: only what it holds besides phenyl's carbons counts.
+    // Where the pattern asks for an aromatic atom (the aryl of an arylacetic acid or a
+    // benzamidine), its ring is the group's own phenyl: only what that ring holds besides
+    // phenyl's carbons counts.
+    let aryl = |a: usize| {
+        matched
+            .iter()
+            .position(|&m| m == a)
+            .is_some_and(|k| pattern.requires_aromatic(k))
+    };
     let own_ring = |a: usize, x: usize| {
-        mol.atoms[a].aromatic
+        aryl(a)
             && mol.atoms[x].aromatic
             && mol.rings.rings.iter().any(|r| r.contains(&a) && r.contains(&x))
     };
@@ -316,7 +323,7 @@ fn uncorrected_substituents(mol: &Molecule, matched: &[usize]) -> usize {
                 seen.push(x);
             }
         }
-        if mol.atoms[a].aromatic {
+        if aryl(a) {
             let others: Vec<usize> = matched.iter().copied().filter(|&m| m != a).collect();
             beyond += hammett::pendant_aryl_unknowns(mol, a, &others);
         }

@@ -120,6 +120,14 @@ impl Pattern {
         atom < target.atom_count() && target.passes(atom, self.screen(k))
     }
 
+    /// Whether pattern atom `k` can stand only on an aromatic atom (`a`, `c`, `[n;...]`).
+    pub fn requires_aromatic(&self, k: usize) -> bool {
+        self.graph
+            .signatures
+            .get(k)
+            .is_some_and(|&s| signature::aromatic_only(s))
+    }
+
     /// The cheap screens of pattern atom `k` (everything passes for an atom the pattern does
     /// not have), for `Target::passes`.
     pub fn screen(&self, k: usize) -> Screen {
@@ -255,6 +263,15 @@ impl FromStr for Pattern {
 mod tests {
     use super::target::tests::{molecule, naphthalene};
     use super::*;
+
+    #[test]
+    fn aromatic_only_atoms_are_told_apart() {
+        let p = Pattern::parse("[CX4H2]a").unwrap();
+        assert!(!p.requires_aromatic(0) && p.requires_aromatic(1));
+        let p = Pattern::parse("[#6]c[n;X2][C,c]").unwrap();
+        assert!(!p.requires_aromatic(0) && p.requires_aromatic(1) && p.requires_aromatic(2));
+        assert!(!p.requires_aromatic(3));
+    }
 
     /// Acetic acid, CC(=O)O: methyl 0, carboxyl C 1, carbonyl O 2, hydroxyl O 3.
     fn acetic_acid() -> Molecule {

@@ -20,6 +20,11 @@ const CONNECTIONS: (u32, u32) = (18, 7);
 const RING: (u32, u32) = (25, 2);
 const PROPERTIES: [(u32, u32); 6] = [AROMATIC, CHARGE, HYDROGENS, DEGREE, CONNECTIONS, RING];
 
+/// Whether a query atom's accepted bits allow only aromatic atoms.
+pub fn aromatic_only(accepted: u64) -> bool {
+    accepted & mask(AROMATIC) == bit(AROMATIC, 1)
+}
+
 /// Every bit of every property: what a query atom accepts when nothing narrows it.
 pub const ANY: u64 = (1 << 27) - 1;
 
