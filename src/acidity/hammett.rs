@@ -106,6 +106,7 @@ fn ring_terms(
                     );
                     c.unknown += pendant_aryl_unknowns(mol, x, ring);
                     c.unknown += extension_unknowns(mol, x, r, ring);
+                    c.unknown += functional_alkyl_unknown(mol, x, r, row);
                 }
                 None => c.unknown += 1,
             }
@@ -310,6 +311,7 @@ pub fn correct_five(
                 Some(row) => {
                     push(&mut c, row, at, share);
                     c.unknown += pendant_aryl_unknowns(mol, x, ring);
+                    c.unknown += functional_alkyl_unknown(mol, x, r, row);
                 }
                 None => c.unknown += 1,
             }
@@ -368,6 +370,22 @@ pub(crate) fn pendant_aryl_unknowns(mol: &Molecule, x: usize, site_ring: &[usize
 /// (its ortho position, so not averaged away by tautomerism): 1-methylpyrazole 2.06 against
 /// pyrazole 2.48 (Perrin 1965, from memory; neither is in the calibration set).
 const N_ALKYL_BESIDE_SITE: f64 = -0.42;
+
+/// A saturated carbon read by the plain alkyl row (one pattern atom, methyl's constants) that
+/// carries a heteroatom or an unsaturated group besides the ring (CH2NR2, CH2CO2H, CH2SR):
+/// the methyl constants leave that group out, so it counts as one group without constants.
+fn functional_alkyl_unknown(
+    mol: &Molecule,
+    x: usize,
+    r: usize,
+    row: &super::substituent::Substituent,
+) -> usize {
+    let generic = row.pattern.atom_count() == 1;
+    let functional = mol.adjacency[x]
+        .iter()
+        .any(|&(y, _)| y != r && !mol.is_saturated_carbon(y));
+    usize::from(generic && mol.is_saturated_carbon(x) && functional)
+}
 
 /// What the vinyl, ethynyl and azo constants (CH=CH2, C#CH, N=NPh) leave out of a conjugated
 /// group bonded to the site's ring at `x` (from ring atom `r`): each group on its far atom
