@@ -189,22 +189,26 @@ fn cross_ring(
                 .min()
                 .unwrap_or(0);
             let conjugated = ring.len() == 6 && !next_to_fusion && bonds % 2 == 1;
-            let mut push = |row: &super::substituent::Substituent| {
+            // Peri: next to the fusion atom that is itself next to the site's ring atom (C8 of
+            // a quinoline seen from N1), as close to the site as an ortho group, with proximity
+            // effects (steric, hydrogen bonds) that no sigma holds: widened as an ortho group.
+            let peri = mol.adjacency[f]
+                .iter()
+                .any(|&(s, _)| shared.contains(&s) && ring_distance(ring, s, ipso) == 1);
+            let mut push = |row: &super::substituent::Substituent, attached: bool| {
                 let sigma = match (row.sigma_m, row.sigma_p) {
                     (Some(m), Some(p)) if conjugated && p < m.min(0.0) => CROSS_RING_CONJUGATED * p,
                     (m, _) => CROSS_RING * m.unwrap_or(0.0),
                 };
-                c.terms.push(Term::plain(
-                    format!("fused-{}", row.name),
-                    sigma,
-                    series.rho,
-                ));
+                let mut term = Term::plain(format!("fused-{}", row.name), sigma, series.rho);
+                term.ortho = peri && attached;
+                c.terms.push(term);
             };
             if far_aza
                 && !next_to_fusion
                 && let Some(row) = look.at(f, None, Position::Ring)
             {
-                push(row);
+                push(row, false);
             }
             for &(y, _) in &mol.adjacency[f] {
                 // Atoms of further rings on this one (benzo[h]quinoline-type) are not
@@ -225,8 +229,9 @@ fn cross_ring(
                 if fused.contains(&y) || ring.contains(&y) || further.is_some() {
                     continue;
                 }
-                if let Some(row) = look.at(y, Some(f), Position::Attached) {
-                    push(row);
+                match look.at(y, Some(f), Position::Attached) {
+                    Some(row) => push(row, true),
+                    None => c.unknown += 1,
                 }
             }
         }
