@@ -375,7 +375,10 @@ fn widen_range(
     // The rho error scales the net shift as a whole.
     term_sq += (WIDEN_PER_SHIFT * net).powi(2);
     let from_series_base = parent.is_none() && (series.base - group.pka).abs() > 0.01;
-    let corrected = net.abs() > 0.01 || term_sq > 1e-6 || from_series_base;
+    // A substituent whose sigma is near zero (CH2OH, SMe para) still rests on the equation:
+    // more terms than the parent has means a corrected estimate.
+    let more_terms = c.terms.len() > parent.map_or(0, |p| p.terms.len());
+    let corrected = net.abs() > 0.01 || term_sq > 1e-6 || from_series_base || more_terms;
     let method = if corrected {
         Z90 * (series.sd.powi(2) + side_sd.powi(2) + term_sq).sqrt()
     } else {
