@@ -80,6 +80,8 @@ pub struct Correction {
     /// change those terms make.
     pub side_sd: f64,
     pub side_shift: f64,
+    /// How many of `terms` the side series gave.
+    pub side_terms: usize,
 }
 
 impl Correction {
@@ -178,14 +180,74 @@ impl Estimator {
         let bad =
             |why: String| Error::Internal(format!("group '{}' parent {smiles}: {why}", g.name));
         let mol = Molecule::from_smiles(smiles).map_err(|e| bad(e.to_string()))?;
-        let site = g
+        let matched = g
             .pattern
             .first_match(&mol)
-            .map(|m| m[g.site])
             .ok_or_else(|| bad("the group's pattern does not match its parent".into()))?;
+        let site = matched[g.site];
         let look = Lookup::new(&mol, &self.substituents);
-        self.correction(&mol, site, series, g.kind == Some(Kind::Base), &look)
-            .ok_or_else(|| bad("no correction can be computed for the parent".into()))
+        let mut c = self
+            .correction(&mol, site, series, g.kind == Some(Kind::Base), &look)
+            .ok_or_else(|| bad("no correction can be computed for the parent".into()))?;
+        c.unknown += self.blind_spots(&mol, site, &matched, series, &c);
+        Ok(c)
+    }
+
+    /// Groups a ring series cannot see: on the atoms of a Hammett group's match that lie off
+    /// its ring (the CH2 of a phenylacetic acid, the hydrate carbon of a quinazoline hydrate),
+    /// anything but a plain alkyl carbon, a ring atom or the side series' N-alkyl groups. Each
+    /// counts as a group without constants. Taft series walk every group on their centre.
+    fn blind_spots(
+        &self,
+        mol: &Molecule,
+        site: usize,
+        matched: &[usize],
+        series: usize,
+        c: &Correction,
+    ) -> usize {
+        let anchor = match self.series[series].constant {
+            Constant::Taft => return 0,
+            Constant::Hammett => c.ipso,
+            Constant::HammettFive => Some(site),
+        };
+        let Some(anchor) = anchor else {
+            return 0;
+        };
+        let rings = &mol.rings.rings;
+        let ring_atoms: Vec<usize> = rings
+            .iter()
+            .filter(|r| r.contains(&anchor))
+            .flat_map(|r| {
+                rings
+                    .iter()
+                    .filter(|f| f.iter().any(|a| r.contains(a)))
+                    .flatten()
+            })
+            .copied()
+            .collect();
+        let side = self.sides[series].is_some();
+        let plain_alkyl = |x: usize| {
+            mol.is_saturated_carbon(x)
+                && mol.adjacency[x]
+                    .iter()
+                    .all(|&(y, _)| matched.contains(&y) || mol.is_saturated_carbon(y))
+        };
+        let mut seen: Vec<usize> = Vec::new();
+        for &a in matched.iter().filter(|a| !ring_atoms.contains(a)) {
+            if side && a == site {
+                continue;
+            }
+            for &(x, _) in &mol.adjacency[a] {
+                if !matched.contains(&x)
+                    && !ring_atoms.contains(&x)
+                    && !seen.contains(&x)
+                    && !plain_alkyl(x)
+                {
+                    seen.push(x);
+                }
+            }
+        }
+        seen.len()
     }
 
     /// The series that carries aryl ring substituents into sigma* (`ARYL_SIGMA_STAR`).
@@ -234,6 +296,7 @@ impl Estimator {
         c.unknown += s.unknown;
         c.side_sd = side.sd;
         c.side_shift = s.shift();
+        c.side_terms = s.terms.len();
         c.terms.extend(s.terms);
     }
 
@@ -259,7 +322,7 @@ impl Estimator {
         };
         let series = &self.series[link.series];
         let cation = group.kind == Some(Kind::Base);
-        let Some(c) = self.correction(mol, site.atom, link.series, cation, look) else {
+        let Some(mut c) = self.correction(mol, site.atom, link.series, cation, look) else {
             let source = format!(
                 "estimate: {} (no {} ring found); {}",
                 group.name, series.name, group.source
@@ -267,6 +330,7 @@ impl Estimator {
             uncorrected(site, source);
             return;
         };
+        c.unknown += self.blind_spots(mol, site.atom, &site.matched, link.series, &c);
         let (base, shift) = match &link.parent {
             Some(p) => (group.pka, c.shift() - p.shift()),
             None => (series.base, c.shift()),
@@ -377,7 +441,9 @@ fn widen_range(
     let from_series_base = parent.is_none() && (series.base - group.pka).abs() > 0.01;
     // A substituent whose sigma is near zero (CH2OH, SMe para) still rests on the equation:
     // more terms than the parent has means a corrected estimate.
-    let more_terms = c.terms.len() > parent.map_or(0, |p| p.terms.len());
+    // (The side series' groups on the site atom are in its base compound, N,N-dimethylaniline.)
+    let own = |c: &Correction| c.terms.len() - c.side_terms;
+    let more_terms = own(c) > parent.map_or(0, own);
     let corrected = net.abs() > 0.01 || term_sq > 1e-6 || from_series_base || more_terms;
     let method = if corrected {
         Z90 * (series.sd.powi(2) + side_sd.powi(2) + term_sq).sqrt()
