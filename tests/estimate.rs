@@ -502,6 +502,10 @@ fn a_substituted_or_heteroaryl_group_is_not_read_as_plain_phenyl() {
     let phenyl = main_site("O=C(O)Cc1ccccc1", Kind::Acid);
     let thienyl = main_site("O=C(O)Cc1cccs1", Kind::Acid);
     assert!(width(&thienyl) > width(&phenyl) + 0.5, "{}", thienyl.source);
+    // In a Taft chain too: an S-phosphoryl group read by the SMe row leaves its phosphoryl out.
+    let sme = main_site("CSCCN(C)C", Kind::Base);
+    let sp = main_site("CCOP(=O)(OCC)SCCN(C)C", Kind::Base);
+    assert!(width(&sp) > width(&sme) + 0.5, "{}", sp.source);
     // A fused ring is not a pendant aryl group: 2-naphthylamine keeps a narrow range.
     let fused = main_site("Nc1ccc2ccccc2c1", Kind::Base);
     assert!(

@@ -41,17 +41,29 @@ impl<'a, 'm> Lookup<'a, 'm> {
         from: Option<usize>,
         position: Position,
     ) -> Option<&'a Substituent> {
+        self.at_with(atom, from, position).map(|(row, _)| row)
+    }
+
+    /// As `at`, with the embedding that matched (molecule atoms in pattern order).
+    pub fn at_with(
+        &self,
+        atom: usize,
+        from: Option<usize>,
+        position: Position,
+    ) -> Option<(&'a Substituent, &[usize])> {
         let rows = self.rows;
         rows.iter()
             .zip(&self.embeddings)
             .filter(|(row, _)| row.position == position)
-            .find(|(row, found)| {
-                row.pattern.may_start_at(&self.target, atom)
-                    && found
-                        .get_or_init(|| row.pattern.anchored_matches_in(&self.target))
-                        .iter()
-                        .any(|m| m[0] == atom && from.is_none_or(|f| !m.contains(&f)))
+            .find_map(|(row, found)| {
+                if !row.pattern.may_start_at(&self.target, atom) {
+                    return None;
+                }
+                found
+                    .get_or_init(|| row.pattern.anchored_matches_in(&self.target))
+                    .iter()
+                    .find(|m| m[0] == atom && from.is_none_or(|f| !m.contains(&f)))
+                    .map(|m| (row, m.as_slice()))
             })
-            .map(|(row, _)| row)
     }
 }

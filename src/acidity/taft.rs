@@ -153,6 +153,21 @@ fn centre_atom(mol: &Molecule, site: usize) -> usize {
     site
 }
 
+/// What a tabulated group's constant leaves out on its first atom: a heteroatom or an
+/// unsaturated, non-aromatic carbon there beyond the row's pattern (the phosphoryl of an
+/// S-phosphoryl group read as SMe, the second acyl of an imide N read as NHAc). Each counts as
+/// a group without constants.
+fn beyond_the_row(mol: &Molecule, atom: usize, from: usize, matched: &[usize]) -> usize {
+    mol.adjacency[atom]
+        .iter()
+        .filter(|&&(y, _)| y != from && !matched.contains(&y))
+        .filter(|&&(y, _)| {
+            let a = &mol.atoms[y];
+            a.element != 6 && a.element != 1 || (!a.aromatic && !mol.is_saturated_carbon(y))
+        })
+        .count()
+}
+
 struct Walk<'m, 'v> {
     mol: &'m Molecule,
     look: &'m Lookup<'m, 'm>,
@@ -168,14 +183,15 @@ struct Walk<'m, 'v> {
 impl Walk<'_, '_> {
     /// sigma* of the group rooted at `atom`, reached from `from`.
     fn group(&mut self, atom: usize, from: usize, depth: usize) -> f64 {
-        if let Some(s) = self
+        if let Some((s, matched)) = self
             .look
-            .at(atom, Some(from), Position::Attached)
-            .and_then(|row| {
+            .at_with(atom, Some(from), Position::Attached)
+            .and_then(|(row, m)| {
                 let ammonium = row.sigma_star_ammonium.filter(|_| self.ammonium);
-                ammonium.or(row.sigma_star)
+                ammonium.or(row.sigma_star).map(|s| (s, m))
             })
         {
+            self.unknown += beyond_the_row(self.mol, atom, from, matched);
             return s + self.ring_substituents(atom, from);
         }
         if !self.saturated_carbon(atom) {
