@@ -88,8 +88,9 @@ fn ring_terms(
                 c.unknown += 1;
                 continue;
             }
-            match look.at(x, Some(r), Position::Attached) {
-                Some(row) => {
+            match look.at_with(x, Some(r), Position::Attached) {
+                Some((row, matched)) => {
+                    c.unknown += super::taft::beyond_the_row(mol, x, r, matched);
                     add(
                         &mut c,
                         series,

@@ -157,7 +157,7 @@ fn centre_atom(mol: &Molecule, site: usize) -> usize {
 /// unsaturated, non-aromatic carbon there beyond the row's pattern (the phosphoryl of an
 /// S-phosphoryl group read as SMe, the second acyl of an imide N read as NHAc). Each counts as
 /// a group without constants.
-fn beyond_the_row(mol: &Molecule, atom: usize, from: usize, matched: &[usize]) -> usize {
+pub(crate) fn beyond_the_row(mol: &Molecule, atom: usize, from: usize, matched: &[usize]) -> usize {
     mol.adjacency[atom]
         .iter()
         .filter(|&&(y, _)| y != from && !matched.contains(&y))
