@@ -37,7 +37,11 @@ pub fn correct(
         aryl,
         look,
     };
-    let mut c = groups_on(mol, centre, &mut visited, &how, "");
+    let mut c = Correction::default();
+    for (_, term, unknown) in groups_on(mol, centre, &mut visited, &how, "") {
+        c.terms.push(term);
+        c.unknown += unknown;
+    }
     if let Some(floor) = series.sigma_floor {
         // The plateau caps what the donating (alkyl) groups give, whatever withdrawing groups
         // sit beside them on the same N.
@@ -85,7 +89,16 @@ pub fn side(
         aryl,
         look,
     };
-    groups_on(mol, site, &mut visited, &how, "N-")
+    let mut c = Correction::default();
+    for (r, mut term, unknown) in groups_on(mol, site, &mut visited, &how, "N-") {
+        // A tertiary alkyl group on the N turns it out of the ring's plane (steric inhibition
+        // of resonance; common practice), an effect no sigma* holds: widened as an ortho
+        // group is.
+        term.ortho = mol.is_saturated_carbon(r) && mol.atoms[r].hydrogens() == 0;
+        c.terms.push(term);
+        c.unknown += unknown;
+    }
+    c
 }
 
 /// What a walk counts with: the series, whether the site is a cation, the aryl series and the
@@ -97,21 +110,22 @@ struct How<'a> {
     look: &'a Lookup<'a, 'a>,
 }
 
-/// One term per group singly bonded to `centre` and not yet visited.
+/// One term per group singly bonded to `centre` and not yet visited: the group's first atom,
+/// its term and how many groups without constants its walk met.
 fn groups_on(
     mol: &Molecule,
     centre: usize,
     visited: &mut Vec<bool>,
     how: &How,
     prefix: &str,
-) -> Correction {
+) -> Vec<(usize, Term, usize)> {
     let How {
         series,
         cation,
         aryl,
         look,
     } = *how;
-    let mut c = Correction::default();
+    let mut out = Vec::new();
     for &(r, bond) in &mol.adjacency[centre] {
         if visited[r] || mol.bonds[bond].order != Order::Single {
             continue;
@@ -126,14 +140,14 @@ fn groups_on(
             ammonium: cation,
         };
         let sigma = walk.group(r, centre, 1);
-        c.unknown += walk.unknown;
+        let unknown = walk.unknown;
         let name = look
             .at(r, Some(centre), Position::Attached)
             .map_or("alkyl", |row| row.name.as_str());
-        c.terms
-            .push(Term::plain(format!("{prefix}{name}"), sigma, series.rho));
+        let term = Term::plain(format!("{prefix}{name}"), sigma, series.rho);
+        out.push((r, term, unknown));
     }
-    c
+    out
 }
 
 /// The carbonyl carbon of an acid O-H or S-H (the groups sit on it); the carbinol carbon of
