@@ -506,6 +506,11 @@ fn a_substituted_or_heteroaryl_group_is_not_read_as_plain_phenyl() {
     let sme = main_site("CSCCN(C)C", Kind::Base);
     let sp = main_site("CCOP(=O)(OCC)SCCN(C)C", Kind::Base);
     assert!(width(&sp) > width(&sme) + 0.5, "{}", sp.source);
+    // A tert-butyl group on an aniline N twists it (steric inhibition of resonance, common
+    // practice): the range widens beyond an N-methyl's.
+    let methyl = main_site("CNc1ccccc1", Kind::Base);
+    let tert = main_site("CC(C)(C)Nc1ccccc1", Kind::Base);
+    assert!(width(&tert) > width(&methyl) + 0.5, "{}", tert.source);
     // A fused ring is not a pendant aryl group: 2-naphthylamine keeps a narrow range.
     let fused = main_site("Nc1ccc2ccccc2c1", Kind::Base);
     assert!(

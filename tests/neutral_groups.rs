@@ -102,6 +102,13 @@ const CASES: &[Case] = &[
         "pyrazole N-H; Serjeant & Dempsey 1979 (from memory)",
     ),
     (
+        "CC(C)(C)O",
+        Kind::Acid,
+        19.2,
+        0.2,
+        "tert-butanol; Ballinger & Long, J. Am. Chem. Soc. 1960, 82, 795 (from memory)",
+    ),
+    (
         "c1ccc2[nH]ncc2c1",
         Kind::Acid,
         13.86,
@@ -207,4 +214,21 @@ fn the_cli_lists_neutral_groups_beside_the_sites() {
     assert_eq!(groups[0]["group"], "ketone or aldehyde O");
     let text = stdout(&phdose("neutral", "text", &["pka", "CC(C)=O"]));
     assert!(text.contains("stays neutral in water"), "{text}");
+}
+
+#[test]
+fn branched_alcohols_are_weaker_acids_than_primary_ones() {
+    // Ethanol 15.9 and tert-butanol 19.2 (Ballinger & Long 1960, from memory); a secondary
+    // alcohol is read midway.
+    let read = |smiles: &str| {
+        profile(smiles)
+            .neutral_groups
+            .iter()
+            .find(|g| g.kind == Kind::Acid)
+            .map(|g| g.pka)
+            .unwrap_or_else(|| panic!("{smiles}: no alcohol"))
+    };
+    let (primary, secondary, tertiary) = (read("CCO"), read("CCC(C)O"), read("CC(C)(C)O"));
+    assert!(primary < secondary && secondary < tertiary);
+    assert!((secondary - (15.9 + 19.2) / 2.0).abs() < 0.4, "{secondary}");
 }
