@@ -448,6 +448,10 @@ fn saturate_donors(c: &mut Correction, series: &Series) {
             t.shift += series.rho * (t.sigma - m);
             t.sigma = m;
             t.stand_in = false;
+            // The split is not checked against a handbook series: how much of the donor's
+            // resonance remains is unknown, so it widens the range as a group without
+            // constants does.
+            c.unknown += 1;
         }
     }
 }
