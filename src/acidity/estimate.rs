@@ -376,14 +376,17 @@ fn uncorrected_substituents(mol: &Molecule, matched: &[usize], pattern: &Pattern
     let own_ring = |a: usize, x: usize| {
         aryl(a)
             && mol.atoms[x].aromatic
-            && mol.rings.rings.iter().any(|r| r.contains(&a) && r.contains(&x))
+            && mol
+                .rings
+                .rings
+                .iter()
+                .any(|r| r.contains(&a) && r.contains(&x))
     };
     let mut seen: Vec<usize> = Vec::new();
     let mut beyond = 0;
     for &a in matched {
         for &(x, _) in &mol.adjacency[a] {
-            if !matched.contains(&x) && !seen.contains(&x) && !own_ring(a, x) && !plain_alkyl(x)
-            {
+            if !matched.contains(&x) && !seen.contains(&x) && !own_ring(a, x) && !plain_alkyl(x) {
                 seen.push(x);
             }
         }
