@@ -406,12 +406,12 @@ fn extension_unknowns(mol: &Molecule, x: usize, r: usize, site_ring: &[usize]) -
             && !mol.atoms[y].aromatic
             && matches!(mol.bonds[b].order, Order::Double | Order::Triple)
     });
-    let Some(&(y, b)) = far else {
+    let Some(&(y, _)) = far else {
         return 0;
     };
     let azo = mol.atoms[x].element == 7 && mol.atoms[y].element == 7;
     let vinyl = mol.atoms[x].element == 6 && mol.atoms[y].element == 6;
-    if !(azo || vinyl) || mol.bonds[b].order == Order::Quadruple {
+    if !(azo || vinyl) {
         return 0;
     }
     mol.adjacency[y]
