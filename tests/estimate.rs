@@ -520,6 +520,43 @@ fn a_substituted_or_heteroaryl_group_is_not_read_as_plain_phenyl() {
     );
 }
 
+#[test]
+fn what_the_constants_leave_out_widens_the_range() {
+    let width = |s: &Site| s.pka_high - s.pka_low;
+    let wider = |plain: &str, other: &str, kind: Kind| {
+        let (p, o) = (main_site(plain, kind), main_site(other, kind));
+        assert!(
+            width(&o) > width(&p) + 0.25,
+            "{other}: {:.2} against {plain}: {:.2}; {}",
+            width(&o),
+            width(&p),
+            o.source
+        );
+    };
+    // A CH2SMe read by the plain alkyl row.
+    wider("Cc1ccncc1", "CSCc1ccncc1", Kind::Base);
+    // A cyanomethyl group on an arylhydrazine's far N, which the ring series does not see.
+    wider("NNc1ccccc1", "N#CCNNc1ccccc1", Kind::Base);
+    // A peri methyl (quinoline C8) against one far from the ring N (C6).
+    wider("Cc1ccc2ncccc2c1", "Cc1cccc2cccnc12", Kind::Base);
+    // A hydroxymethyl group, sigma_m 0.00, still rests on the imidazolium series.
+    wider("c1c[nH]cn1", "OCc1c[nH]cn1", Kind::Base);
+    // The second amino donor of 2,4-diaminopyrimidine, cut to its sigma_m by our rule.
+    let diamino = main_site("Nc1ccnc(N)n1", Kind::Base);
+    assert!(
+        diamino.source.contains("without constants"),
+        "{}",
+        diamino.source
+    );
+    // The ring O of a pyrone has no ring row.
+    let pyrone = main_site("O=C(O)c1ccc(=O)oc1", Kind::Acid);
+    assert!(
+        pyrone.source.contains("without constants"),
+        "{}",
+        pyrone.source
+    );
+}
+
 /// Carboxylic acids level off too: however many alkyl groups pile up on the alpha carbon, the
 /// acid stays near pivalic acid (the plateau's source row, series.csv).
 const CARBOXYLIC_PLATEAU: &[Case] = &[
