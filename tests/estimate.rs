@@ -548,6 +548,9 @@ fn what_the_constants_leave_out_widens_the_range() {
         "{}",
         diamino.source
     );
+    // An amino donor para to the N-alkyl ring N of a ring imine conjugates with that N, where
+    // the series counting from the imine carbon does not look.
+    wider("Cn1cccnc1=N", "CNc1ccn(C)c(=N)n1", Kind::Base);
     // The ring O of a pyrone has no ring row.
     let pyrone = main_site("O=C(O)c1ccc(=O)oc1", Kind::Acid);
     assert!(

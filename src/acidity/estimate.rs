@@ -500,10 +500,10 @@ fn describe(group: &Group, series: &Series, c: &Correction, parent: Option<&Corr
         } else {
             format!(" ({})", terms.join(", "))
         },
-        if c.unknown > 0 {
-            format!(", {} group(s) without constants", c.unknown)
-        } else {
-            String::new()
+        // As the range counts them: not those the parent compound has too.
+        match c.unknown.saturating_sub(parent.map_or(0, |p| p.unknown)) {
+            0 => String::new(),
+            n => format!(", {n} group(s) without constants"),
         },
     )
 }

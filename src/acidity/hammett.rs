@@ -60,6 +60,24 @@ fn ring_terms(
         ipso: Some(ipso),
         ..Correction::default()
     };
+    // An exocyclic imine on the ring (a 1-alkyl-2(1H)-pyridinimine): its cation is an
+    // amidinium ion whose charge the N-alkyl ring N shares, and a strong donor ortho or para to
+    // that ring N conjugates with it where the series, counting from the imine carbon, does
+    // not look. Each such donor counts as a group without constants.
+    let imine = ipso != site
+        && mol.atoms[site].element == 7
+        && mol.adjacency[site]
+            .iter()
+            .any(|&(x, b)| x == ipso && mol.bonds[b].order == Order::Double);
+    let charged_ring_n: Vec<usize> = if imine {
+        mol.adjacency[ipso]
+            .iter()
+            .map(|&(x, _)| x)
+            .filter(|&x| ring.contains(&x) && mol.atoms[x].element == 7 && mol.degree(x) == 3)
+            .collect()
+    } else {
+        Vec::new()
+    };
     for &r in ring {
         let distance = ring_distance(ring, ipso, r);
         if r != ipso {
@@ -108,6 +126,12 @@ fn ring_terms(
                     c.unknown += pendant_aryl_unknowns(mol, x, ring);
                     c.unknown += extension_unknowns(mol, x, r, ring);
                     c.unknown += functional_alkyl_unknown(mol, x, r, row);
+                    let conjugated = |&n: &usize| matches!(ring_distance(ring, n, r), 1 | 3);
+                    if row.sigma_p.is_some_and(|p| p < STRONG_DONOR)
+                        && charged_ring_n.iter().any(conjugated)
+                    {
+                        c.unknown += 1;
+                    }
                 }
                 None => c.unknown += 1,
             }
