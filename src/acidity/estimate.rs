@@ -226,12 +226,6 @@ impl Estimator {
             .copied()
             .collect();
         let side = self.sides[series].is_some();
-        let plain_alkyl = |x: usize| {
-            mol.is_saturated_carbon(x)
-                && mol.adjacency[x]
-                    .iter()
-                    .all(|&(y, _)| matched.contains(&y) || mol.is_saturated_carbon(y))
-        };
         let mut seen: Vec<usize> = Vec::new();
         for &a in matched.iter().filter(|a| !ring_atoms.contains(a)) {
             if side && a == site {
@@ -241,7 +235,7 @@ impl Estimator {
                 if !matched.contains(&x)
                     && !ring_atoms.contains(&x)
                     && !seen.contains(&x)
-                    && !plain_alkyl(x)
+                    && !plain_alkyl(mol, x, matched)
                 {
                     seen.push(x);
                 }
@@ -352,18 +346,21 @@ impl Estimator {
     }
 }
 
+/// A saturated carbon bonded to nothing but saturated carbons and the group's matched atoms:
+/// an alkyl group the group's own spread covers.
+fn plain_alkyl(mol: &Molecule, x: usize, matched: &[usize]) -> bool {
+    mol.is_saturated_carbon(x)
+        && mol.adjacency[x]
+            .iter()
+            .all(|&(y, _)| matched.contains(&y) || mol.is_saturated_carbon(y))
+}
+
 /// Substituents on the atoms of a group that has no series, so the estimate cannot correct for
 /// them: atoms bonded to the group's matched atoms that are neither part of the match nor a
 /// plain alkyl carbon (saturated, bonded to no heteroatom or unsaturated atom besides the
 /// group), and for an aryl neighbour what its ring holds besides phenyl's carbons. Each widens
 /// the range as a substituent without constants does in a series.
 fn uncorrected_substituents(mol: &Molecule, matched: &[usize], pattern: &Pattern) -> usize {
-    let plain_alkyl = |x: usize| {
-        mol.is_saturated_carbon(x)
-            && mol.adjacency[x]
-                .iter()
-                .all(|&(y, _)| matched.contains(&y) || mol.is_saturated_carbon(y))
-    };
     // Where the pattern asks for an aromatic atom (the aryl of an arylacetic acid or a
     // benzamidine), its ring is the group's own phenyl: only what that ring holds besides
     // phenyl's carbons counts.
@@ -386,7 +383,11 @@ fn uncorrected_substituents(mol: &Molecule, matched: &[usize], pattern: &Pattern
     let mut beyond = 0;
     for &a in matched {
         for &(x, _) in &mol.adjacency[a] {
-            if !matched.contains(&x) && !seen.contains(&x) && !own_ring(a, x) && !plain_alkyl(x) {
+            if !matched.contains(&x)
+                && !seen.contains(&x)
+                && !own_ring(a, x)
+                && !plain_alkyl(mol, x, matched)
+            {
                 seen.push(x);
             }
         }
