@@ -478,43 +478,54 @@ fn a_pyridinium_ion_feels_para_donors_by_its_own_constants() {
     assert!((dmap.pka - 9.70).abs() < 0.15, "{}", dmap.source);
 }
 
+/// Width of a site's reported range.
+fn width(s: &Site) -> f64 {
+    s.pka_high - s.pka_low
+}
+
+/// `other`'s range is wider than `plain`'s by more than `by`: something in `other` the
+/// constants in use leave out widens it.
+fn assert_wider(plain: &str, other: &str, kind: Kind, by: f64) {
+    let (p, o) = (main_site(plain, kind), main_site(other, kind));
+    assert!(
+        width(&o) > width(&p) + by,
+        "{other}: {:.2} against {plain}: {:.2}; {}",
+        width(&o),
+        width(&p),
+        o.source
+    );
+}
+
 #[test]
 fn a_substituted_or_heteroaryl_group_is_not_read_as_plain_phenyl() {
     // The aryl row holds phenyl's constants; what it leaves out (a nitro group on the far ring,
     // a ring N of a pyridyl group) is uncorrected and must widen the range, not vanish.
-    let plain = main_site("Nc1ccc(-c2ccccc2)cc1", Kind::Base);
-    let nitro = main_site("Nc1ccc(-c2ccc([N+](=O)[O-])cc2)cc1", Kind::Base);
-    let pyridyl = main_site("Nc1ccc(-c2ccccn2)cc1", Kind::Base);
-    let width = |s: &Site| s.pka_high - s.pka_low;
-    assert!(width(&nitro) > width(&plain) + 0.5, "{}", nitro.source);
-    assert!(width(&pyridyl) > width(&plain) + 0.5, "{}", pyridyl.source);
-    assert!(
-        nitro.source.contains("without constants"),
-        "{}",
-        nitro.source
-    );
+    let plain = "Nc1ccc(-c2ccccc2)cc1";
+    let nitro = "Nc1ccc(-c2ccc([N+](=O)[O-])cc2)cc1";
+    assert_wider(plain, nitro, Kind::Base, 0.5);
+    assert_wider(plain, "Nc1ccc(-c2ccccn2)cc1", Kind::Base, 0.5);
+    let source = main_site(nitro, Kind::Base).source;
+    assert!(source.contains("without constants"), "{source}");
     // The same past a vinyl group: a nitrostyryl group is not a vinyl group.
-    let vinyl = main_site("Nc1ccc(C=C)cc1", Kind::Base);
-    let styryl = main_site("Nc1ccc(C=Cc2ccc([N+](=O)[O-])cc2)cc1", Kind::Base);
-    assert!(width(&styryl) > width(&vinyl) + 0.5, "{}", styryl.source);
+    assert_wider(
+        "Nc1ccc(C=C)cc1",
+        "Nc1ccc(C=Cc2ccc([N+](=O)[O-])cc2)cc1",
+        Kind::Base,
+        0.5,
+    );
     // A thiophene where the phenylacetic series wants a benzene ring: the group's value stands
     // and the ring it cannot correct for widens the range.
-    let phenyl = main_site("O=C(O)Cc1ccccc1", Kind::Acid);
-    let thienyl = main_site("O=C(O)Cc1cccs1", Kind::Acid);
-    assert!(width(&thienyl) > width(&phenyl) + 0.5, "{}", thienyl.source);
+    assert_wider("O=C(O)Cc1ccccc1", "O=C(O)Cc1cccs1", Kind::Acid, 0.5);
     // In a Taft chain too: an S-phosphoryl group read by the SMe row leaves its phosphoryl out.
-    let sme = main_site("CSCCN(C)C", Kind::Base);
-    let sp = main_site("CCOP(=O)(OCC)SCCN(C)C", Kind::Base);
-    assert!(width(&sp) > width(&sme) + 0.5, "{}", sp.source);
+    assert_wider("CSCCN(C)C", "CCOP(=O)(OCC)SCCN(C)C", Kind::Base, 0.5);
     // A tert-butyl group on an aniline N twists it (steric inhibition of resonance, common
     // practice): the range widens beyond an N-methyl's.
-    let methyl = main_site("CNc1ccccc1", Kind::Base);
-    let tert = main_site("CC(C)(C)Nc1ccccc1", Kind::Base);
-    assert!(width(&tert) > width(&methyl) + 0.5, "{}", tert.source);
+    assert_wider("CNc1ccccc1", "CC(C)(C)Nc1ccccc1", Kind::Base, 0.5);
     // A fused ring is not a pendant aryl group: 2-naphthylamine keeps a narrow range.
     let fused = main_site("Nc1ccc2ccccc2c1", Kind::Base);
+    let phenyl = main_site(plain, Kind::Base);
     assert!(
-        (width(&fused) - width(&plain)).abs() < 0.2,
+        (width(&fused) - width(&phenyl)).abs() < 0.2,
         "{}",
         fused.source
     );
@@ -522,42 +533,26 @@ fn a_substituted_or_heteroaryl_group_is_not_read_as_plain_phenyl() {
 
 #[test]
 fn what_the_constants_leave_out_widens_the_range() {
-    let width = |s: &Site| s.pka_high - s.pka_low;
-    let wider = |plain: &str, other: &str, kind: Kind| {
-        let (p, o) = (main_site(plain, kind), main_site(other, kind));
-        assert!(
-            width(&o) > width(&p) + 0.25,
-            "{other}: {:.2} against {plain}: {:.2}; {}",
-            width(&o),
-            width(&p),
-            o.source
-        );
-    };
     // A CH2SMe read by the plain alkyl row.
-    wider("Cc1ccncc1", "CSCc1ccncc1", Kind::Base);
+    assert_wider("Cc1ccncc1", "CSCc1ccncc1", Kind::Base, 0.25);
     // A cyanomethyl group on an arylhydrazine's far N, which the ring series does not see.
-    wider("NNc1ccccc1", "N#CCNNc1ccccc1", Kind::Base);
+    assert_wider("NNc1ccccc1", "N#CCNNc1ccccc1", Kind::Base, 0.25);
     // A peri methyl (quinoline C8) against one far from the ring N (C6).
-    wider("Cc1ccc2ncccc2c1", "Cc1cccc2cccnc12", Kind::Base);
+    assert_wider("Cc1ccc2ncccc2c1", "Cc1cccc2cccnc12", Kind::Base, 0.25);
     // A hydroxymethyl group, sigma_m 0.00, still rests on the imidazolium series.
-    wider("c1c[nH]cn1", "OCc1c[nH]cn1", Kind::Base);
-    // The second amino donor of 2,4-diaminopyrimidine, cut to its sigma_m by our rule.
-    let diamino = main_site("Nc1ccnc(N)n1", Kind::Base);
-    assert!(
-        diamino.source.contains("without constants"),
-        "{}",
-        diamino.source
-    );
+    assert_wider("c1c[nH]cn1", "OCc1c[nH]cn1", Kind::Base, 0.25);
     // An amino donor para to the N-alkyl ring N of a ring imine conjugates with that N, where
     // the series counting from the imine carbon does not look.
-    wider("Cn1cccnc1=N", "CNc1ccn(C)c(=N)n1", Kind::Base);
-    // The ring O of a pyrone has no ring row.
-    let pyrone = main_site("O=C(O)c1ccc(=O)oc1", Kind::Acid);
-    assert!(
-        pyrone.source.contains("without constants"),
-        "{}",
-        pyrone.source
-    );
+    assert_wider("Cn1cccnc1=N", "CNc1ccn(C)c(=N)n1", Kind::Base, 0.25);
+    // The second amino donor of 2,4-diaminopyrimidine, cut to its sigma_m by our rule, and the
+    // ring O of a pyrone, which has no ring row.
+    for (smiles, kind) in [
+        ("Nc1ccnc(N)n1", Kind::Base),
+        ("O=C(O)c1ccc(=O)oc1", Kind::Acid),
+    ] {
+        let source = main_site(smiles, kind).source;
+        assert!(source.contains("without constants"), "{smiles}: {source}");
+    }
 }
 
 /// Carboxylic acids level off too: however many alkyl groups pile up on the alpha carbon, the
