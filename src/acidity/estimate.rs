@@ -226,22 +226,12 @@ impl Estimator {
             .copied()
             .collect();
         let side = self.sides[series].is_some();
-        let mut seen: Vec<usize> = Vec::new();
-        for &a in matched.iter().filter(|a| !ring_atoms.contains(a)) {
-            if side && a == site {
-                continue;
-            }
-            for &(x, _) in &mol.adjacency[a] {
-                if !matched.contains(&x)
-                    && !ring_atoms.contains(&x)
-                    && !seen.contains(&x)
-                    && !plain_alkyl(mol, x, matched)
-                {
-                    seen.push(x);
-                }
-            }
-        }
-        seen.len()
+        let off_ring = matched
+            .iter()
+            .copied()
+            // The side series walks the site atom's own groups.
+            .filter(|&a| !(ring_atoms.contains(&a) || side && a == site));
+        groups_beyond(mol, matched, off_ring, |_, x| ring_atoms.contains(&x)).len()
     }
 
     /// The series that carries aryl ring substituents into sigma* (`ARYL_SIGMA_STAR`).
@@ -346,6 +336,29 @@ impl Estimator {
     }
 }
 
+/// The distinct neighbours of `from` (atoms of the match `matched`) that are neither matched nor
+/// plain alkyl carbons nor `skip(atom, neighbour)`: the groups a group's constants leave out.
+fn groups_beyond(
+    mol: &Molecule,
+    matched: &[usize],
+    from: impl Iterator<Item = usize>,
+    skip: impl Fn(usize, usize) -> bool,
+) -> Vec<usize> {
+    let mut seen: Vec<usize> = Vec::new();
+    for a in from {
+        for &(x, _) in &mol.adjacency[a] {
+            if !matched.contains(&x)
+                && !seen.contains(&x)
+                && !skip(a, x)
+                && !plain_alkyl(mol, x, matched)
+            {
+                seen.push(x);
+            }
+        }
+    }
+    seen
+}
+
 /// A saturated carbon bonded to nothing but saturated carbons and the group's matched atoms:
 /// an alkyl group the group's own spread covers.
 fn plain_alkyl(mol: &Molecule, x: usize, matched: &[usize]) -> bool {
@@ -379,22 +392,11 @@ fn uncorrected_substituents(mol: &Molecule, matched: &[usize], pattern: &Pattern
                 .iter()
                 .any(|r| r.contains(&a) && r.contains(&x))
     };
-    let mut seen: Vec<usize> = Vec::new();
+    let seen = groups_beyond(mol, matched, matched.iter().copied(), own_ring);
     let mut beyond = 0;
-    for &a in matched {
-        for &(x, _) in &mol.adjacency[a] {
-            if !matched.contains(&x)
-                && !seen.contains(&x)
-                && !own_ring(a, x)
-                && !plain_alkyl(mol, x, matched)
-            {
-                seen.push(x);
-            }
-        }
-        if aryl(a) {
-            let others: Vec<usize> = matched.iter().copied().filter(|&m| m != a).collect();
-            beyond += hammett::pendant_aryl_unknowns(mol, a, &others);
-        }
+    for &a in matched.iter().filter(|&&a| aryl(a)) {
+        let others: Vec<usize> = matched.iter().copied().filter(|&m| m != a).collect();
+        beyond += hammett::pendant_aryl_unknowns(mol, a, &others);
     }
     // An aryl neighbour also brings its ring's hetero members and groups (a pyrazinyl group is
     // more than one unknown).
